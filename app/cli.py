@@ -1,0 +1,154 @@
+"""The ``penduline`` command: the window, and ``report``, ``solve``, ``sweep``, ``export``.
+
+Exit codes: 0 success, 2 bad input (one line on stderr naming the field), 1 unexpected failure.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import sys
+from pathlib import Path
+from typing import Any, Sequence
+
+__all__ = ["main"]
+
+COMMANDS = ("report", "solve", "sweep", "export")
+
+
+class _UsageError(Exception):
+    """Bad command-line words: reported like bad input (exit 2)."""
+
+
+class _Parser(argparse.ArgumentParser):
+    def error(self, message: str) -> Any:  # type: ignore[override]
+        raise _UsageError(message)
+
+
+def _parsers() -> tuple[_Parser, _Parser]:
+    window = _Parser(prog="penduline", description="Open the Penduline workbench.",
+                     epilog=f"Commands: {', '.join(COMMANDS)} (penduline COMMAND --help).")
+    window.add_argument("file", nargs="?", help="design file to open (default: an example)")
+    window.add_argument("--screenshot", metavar="OUT.png",
+                        help="draw the window offscreen, save it as PNG and exit")
+    tools = _Parser(prog="penduline")
+    sub = tools.add_subparsers(dest="command", required=True)
+    rep = sub.add_parser("report", help="print the readout")
+    rep.add_argument("file")
+    rep.add_argument("--json", action="store_true", help="one JSON object, SI units")
+    sol = sub.add_parser("solve", help="find the value of one field that meets a goal")
+    sol.add_argument("file")
+    sol.add_argument("--vary", required=True, metavar="FIELD",
+                     help="field path, e.g. parts[2].mount.centre_m")
+    goal = sol.add_mutually_exclusive_group(required=True)
+    goal.add_argument("--target-period", type=float, metavar="S")
+    goal.add_argument("--null", choices=["temperature"])
+    sol.add_argument("--write", metavar="OUT", help="write the design with the solved value")
+    swp = sub.add_parser("sweep", help="period and rate against one field, as CSV")
+    swp.add_argument("file")
+    swp.add_argument("--vary", required=True, metavar="FIELD", help="field path, or 'pivot'")
+    swp.add_argument("--from", dest="start", type=float, required=True)
+    swp.add_argument("--to", dest="stop", type=float, required=True)
+    swp.add_argument("--points", type=int, default=51)
+    exp = sub.add_parser("export", help="write plots, data and a PDF report, no display needed")
+    exp.add_argument("file")
+    exp.add_argument("--out", required=True, metavar="DIR")
+    for p in (rep, sol, swp, exp):
+        p.__class__ = _Parser
+    return window, tools
+
+
+def main(argv: Sequence[str] | None = None) -> int:
+    """Run the command line; returns the exit code."""
+    args_list = list(sys.argv[1:] if argv is None else argv)
+    from core import DesignError
+
+    try:
+        window, tools = _parsers()
+        if args_list and args_list[0] in COMMANDS:
+            args = tools.parse_args(args_list)
+            return _COMMAND_RUNNERS[args.command](args)
+        args = window.parse_args(args_list)
+        from .launch import run_window
+        return run_window(args.file, args.screenshot)
+    except DesignError as exc:
+        print(f"penduline: {exc.field}: {exc.reason}", file=sys.stderr)
+        return 2
+    except _UsageError as exc:
+        print(f"penduline: {exc}", file=sys.stderr)
+        return 2
+    except KeyboardInterrupt:
+        return 1
+    except Exception as exc:  # the last line of defence: one line, no traceback
+        print(f"penduline: unexpected failure: {type(exc).__name__}: {exc}", file=sys.stderr)
+        return 1
+
+
+def _report(args: argparse.Namespace) -> int:
+    from core import analyse, load_design
+
+    from .readout_format import rows
+
+    result = analyse(load_design(args.file))
+    report = result.report_dict()
+    if args.json:
+        print(json.dumps(report, indent=2, ensure_ascii=False))
+        return 0
+    print(f"{result.design.name}  ({Path(args.file).name})")
+    section = ""
+    for sec, label, value, unit in rows(report):
+        if sec != section:
+            section = sec
+            print(f"\n{sec}")
+        print(f"  {label:<28} {value:>18} {unit}")
+    print("\nRate budget (spread of rate over each range)")
+    for line in report["rate_budget"]:
+        print(f"  {line['cause']:<14} {line['low']:>10.4g} to {line['high']:<10.4g} "
+              f"{line['unit']:<4} {line['spread_s_per_day']:+10.3f} s/day")
+    print(f"  {'Total, worst case':<40} {report['rate_budget_worst_case_s_per_day']:+10.3f} s/day")
+    for title, key in (("Warnings", "warnings"), ("Cautions", "cautions")):
+        if report[key]:
+            print(f"\n{title}")
+            for text in report[key]:
+                print(f"  - {text}")
+    return 0
+
+
+def _solve(args: argparse.Namespace) -> int:
+    from core import load_design
+    from core.fileformat import read_design_dict, set_in_dict, write_text_atomic
+    from core.solve import solve_field
+
+    design = load_design(args.file)
+    goal = "temperature" if args.null else "period"
+    sol = solve_field(design, args.vary, goal, args.target_period)  # type: ignore[arg-type]
+    print(f"{sol.field} = {sol.value:.12g}  (was {sol.old_value:.12g})")
+    print(f"period {sol.period_s:.12f} s, temperature coefficient "
+          f"{sol.temperature_coefficient_s_per_day_per_k:+.5f} s/day/K")
+    if args.write:
+        raw = set_in_dict(read_design_dict(args.file), sol.field, sol.value)
+        write_text_atomic(args.write, json.dumps(raw, indent=2, ensure_ascii=False) + "\n")
+        print(f"wrote {args.write}")
+    return 0
+
+
+def _sweep(args: argparse.Namespace) -> int:
+    from core import load_design
+    from core.solve import sweep_field
+
+    table = sweep_field(load_design(args.file), args.vary, args.start, args.stop, args.points)
+    print(f"{table.field},period_s,rate_s_per_day")
+    for x, t, r in zip(table.values, table.period_s, table.rate_s_per_day):
+        print(f"{x:.9g},{'' if t != t else f'{t:.12g}'},{'' if r != r else f'{r:.6f}'}")
+    return 0
+
+
+def _export(args: argparse.Namespace) -> int:
+    from .export import export_all
+
+    for path in export_all(args.file, args.out):
+        print(path)
+    return 0
+
+
+_COMMAND_RUNNERS = {"report": _report, "solve": _solve, "sweep": _sweep, "export": _export}

@@ -1,0 +1,266 @@
+"""``analyse``: one validated design in, one immutable result out.
+
+The result carries every figure of the readout under the names of the report's JSON keys
+(DESIGN §4), the curves the window draws, the rate budget, warnings and safety cautions.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, fields
+from typing import Any
+
+import numpy as np
+from numpy.typing import NDArray
+
+from .design import Bob, ClampMount, Design, Rod
+from .errors import DesignError
+from .exhibit import ExhibitFigures, exhibit_figures
+from .fileformat import design_from_dict, design_to_dict
+from .mass_properties import Body
+from .model import SECONDS_PER_DAY, PendulumState, pendulum_state
+from .motion import Motion, motion
+from .period import period_exact
+from .phase import PhasePortrait, phase_portrait
+from .tuning import BudgetRanges, RateBudget, Sensitivities, rate_budget, sensitivities
+
+__all__ = ["Result", "PeriodCurve", "analyse", "REPORT_KEYS", "LOAD_CAUTION", "SPRING_CAUTION"]
+
+FloatArray = NDArray[np.float64]
+
+REPORT_KEYS = (
+    "mass_kg", "centre_of_mass_m", "inertia_pivot_kg_m2", "equivalent_length_m",
+    "centre_of_oscillation_m", "g_m_s2", "period_small_s", "period_s", "beats_per_hour",
+    "circular_error_s_per_day", "rate_s_per_day", "temperature_coefficient_s_per_day_per_k",
+    "pressure_coefficient_s_per_day_per_hpa", "bob_sensitivity_s_per_day_per_mm",
+    "peak_speed_m_s", "max_pivot_load_n", "warnings",
+)
+
+LOAD_CAUTION = (
+    "Loads shown are ideal dynamic loads with no safety factor. The fixing, cable and structure "
+    "must be designed and checked by a qualified engineer under local building codes.")
+SPRING_CAUTION = (
+    "Suspension-spring and knife-edge stresses are outside what Penduline checks or certifies.")
+
+_CURVE_AMPLITUDES_DEG = np.concatenate([np.linspace(0.05, 170.0, 340),
+                                        np.linspace(170.5, 179.9, 60)])
+
+
+@dataclass(frozen=True)
+class PeriodCurve:
+    """Exact period (s) and circular error (s/day) against semi-arc (degrees)."""
+
+    amplitude_deg: FloatArray
+    period_s: FloatArray
+    circular_error_s_per_day: FloatArray
+
+
+@dataclass(frozen=True)
+class Result:
+    """Everything Penduline shows about one design. SI units; per-day figures in s/day."""
+
+    design: Design
+    # DESIGN §4 figures
+    mass_kg: float
+    centre_of_mass_m: float
+    inertia_pivot_kg_m2: float
+    equivalent_length_m: float
+    centre_of_oscillation_m: float
+    g_m_s2: float
+    period_small_s: float
+    period_s: float
+    beats_per_hour: float
+    circular_error_s_per_day: float
+    rate_s_per_day: float | None
+    temperature_coefficient_s_per_day_per_k: float
+    pressure_coefficient_s_per_day_per_hpa: float
+    bob_sensitivity_s_per_day_per_mm: float | None
+    peak_speed_m_s: float | None
+    max_pivot_load_n: float
+    warnings: tuple[str, ...]
+    # further figures
+    target_period_s: float | None
+    amplitude_deg: float
+    air_density_kg_m3: float
+    effective_inertia_kg_m2: float
+    torque_n_m: float
+    cautions: tuple[str, ...]
+    sensitivities: Sensitivities
+    budget: RateBudget
+    exhibit: ExhibitFigures
+    bodies: tuple[Body, ...]
+    motion: Motion
+    phase: PhasePortrait
+    period_curve: PeriodCurve
+
+    def report_dict(self) -> dict[str, Any]:
+        """The JSON form of ``penduline report --json``: DESIGN §4 keys first, then the rest."""
+        out: dict[str, Any] = {key: _plain(getattr(self, key)) for key in REPORT_KEYS}
+        s, e = self.sensitivities, self.exhibit
+        out.update({
+            "name": self.design.name,
+            "target_period_s": self.target_period_s,
+            "amplitude_deg": self.amplitude_deg,
+            "air_density_kg_m3": self.air_density_kg_m3,
+            "rating_nut_s_per_day_per_turn": s.rating_nut_s_per_day_per_turn,
+            "trim_height_m": s.trim_height_m,
+            "trim_s_per_day_per_g": s.trim_s_per_day_per_g,
+            "arc_s_per_day_per_0_1_deg": s.arc_s_per_day_per_0_1_deg,
+            "elevation_s_per_day_per_100_m": s.elevation_s_per_day_per_100_m,
+            "stiffness_s_per_day_per_n_m_per_rad": s.stiffness_s_per_day_per_n_m_per_rad,
+            "rate_budget": [
+                {"cause": line.cause, "unit": line.unit, "low": line.low, "high": line.high,
+                 "rate_at_low_s_per_day": line.rate_at_low_s_per_day,
+                 "rate_at_high_s_per_day": line.rate_at_high_s_per_day,
+                 "spread_s_per_day": line.spread_s_per_day} for line in self.budget.lines],
+            "rate_budget_worst_case_s_per_day": self.budget.worst_case_s_per_day,
+            "rate_budget_rss_s_per_day": self.budget.root_sum_square_s_per_day,
+            "cautions": list(self.cautions),
+        })
+        out.update({f.name: _plain(getattr(e, f.name)) for f in fields(e)
+                    if f.name not in out})
+        return out
+
+
+def _plain(value: Any) -> Any:
+    if isinstance(value, tuple):
+        return list(value)
+    if isinstance(value, float) and not math.isfinite(value):
+        return None
+    return value
+
+
+def _validated(design: Design | dict[str, Any]) -> Design:
+    """Check any design object (or a parsed file dict) through the one validator."""
+    if isinstance(design, Design):
+        try:
+            return design_from_dict(design_to_dict(design))
+        except DesignError:
+            raise
+        except Exception as exc:
+            raise DesignError("design", f"is not a complete design ({type(exc).__name__})"
+                              ) from None
+    if isinstance(design, dict):
+        return design_from_dict(design)
+    raise DesignError("design", f"must be a Design, not {type(design).__name__}")
+
+
+def _warnings(design: Design, state: PendulumState) -> tuple[str, ...]:
+    out = []
+    amp = design.swing.amplitude_deg
+    if amp > 90.0:
+        out.append(f"Semi-arc {amp:g}° is above 90°: a cable or chain would go slack at release; "
+                   "only a rigid rod can swing this far.")
+    if amp >= 150.0:
+        out.append(f"Semi-arc {amp:g}° is near 180°: the period grows without bound there and "
+                   "the smallest change of arc changes it greatly.")
+    for p in design.parts:
+        if isinstance(p, Bob) and isinstance(p.mount, ClampMount):
+            rod = design.part(p.mount.on)
+            assert isinstance(rod, Rod)
+            if p.mount.centre_m > rod.top_m + rod.length_m:
+                out.append(f"Bob '{p.name}' is centred below the end of rod '{rod.name}': it "
+                           "hangs from the rod's end.")
+    if design.suspension.kind == "spring" and amp > 10.0:
+        out.append(f"A suspension spring at {amp:g}° semi-arc bends far beyond its linear range; "
+                   "the constant-stiffness model is optimistic there.")
+    if state.main_bob() is None:
+        out.append("The design has no bob: peak speed is not defined.")
+    if state.mass.first_moment_kg_m > 0 and state.air_density_kg_m3 > 0:
+        buoyancy = state.mass.displaced_first_moment_kg_m / state.mass.first_moment_kg_m
+        if buoyancy > 0.01:
+            out.append(f"Air buoys the pendulum by {100 * buoyancy:.2g} % of its weight torque: "
+                       "the added-mass model is an approximation at this level.")
+    return tuple(out)
+
+
+def _cautions(design: Design, exhibit: ExhibitFigures) -> tuple[str, ...]:
+    out = [LOAD_CAUTION]
+    if design.suspension.kind == "spring":
+        out.append(SPRING_CAUTION)
+    if exhibit.static_load_n > 200.0:
+        out.append(f"Heavy pendulum ({exhibit.static_load_n / 9.80665:.3g} kg): keep people out "
+                   "from under it and out of its sweep while it is hung, tested or stopped.")
+    if design.site.latitude_deg != 0.0:
+        out.append("A swing started with the least sideways motion becomes elliptical and its "
+                   "plane turns by itself (Airy 1851), adding to or hiding the Foucault turn: "
+                   "release it from rest, by burning a thread or an electromagnet.")
+    return tuple(out)
+
+
+def period_curve(state: PendulumState) -> PeriodCurve:
+    """Exact period and circular error against semi-arc, 0.05°–179.9°."""
+    amps = _CURVE_AMPLITUDES_DEG
+    periods = period_exact(state.inertia_kg_m2, state.torque_n_m, state.stiffness_n_m_per_rad,
+                           np.radians(amps))
+    return PeriodCurve(amps, periods, SECONDS_PER_DAY * (1.0 - state.period_small_s / periods))
+
+
+def analyse(design: Design | dict[str, Any], *, trim_height_m: float | None = None,
+            budget_ranges: BudgetRanges = BudgetRanges()) -> Result:
+    """Analyse a design: figures, sensitivities, budget, exhibit figures and curves.
+
+    Parameters
+    ----------
+    design : Design or dict
+        The design (validated again here), or a parsed design file.
+    trim_height_m : float, optional
+        Height below the pivot at which to quote the trim-weight sensitivity, m (default: the
+        first trim weight, else half the centre of oscillation).
+    budget_ranges : BudgetRanges
+        Half-widths of the temperature, pressure and arc ranges of the rate budget.
+
+    Raises
+    ------
+    DesignError
+        Whatever is wrong with the design, naming the field. Nothing else escapes.
+    """
+    try:
+        return _analyse(_validated(design), trim_height_m, budget_ranges)
+    except DesignError:
+        raise
+    except (ArithmeticError, ValueError) as exc:
+        raise DesignError("design", f"cannot be computed ({exc})") from None
+
+
+def _analyse(design: Design, trim_height_m: float | None, ranges: BudgetRanges) -> Result:
+    state = pendulum_state(design)
+    sens = sensitivities(design, state, trim_height_m)
+    exhibit = exhibit_figures(state)
+    mass = state.mass
+    return Result(
+        design=design,
+        mass_kg=mass.mass_kg,
+        centre_of_mass_m=mass.centre_of_mass_m,
+        inertia_pivot_kg_m2=mass.inertia_pivot_kg_m2,
+        equivalent_length_m=mass.equivalent_length_m,
+        centre_of_oscillation_m=sens.null_height_m,
+        g_m_s2=state.g_m_s2,
+        period_small_s=state.period_small_s,
+        period_s=state.period_s,
+        beats_per_hour=7200.0 / state.period_s,
+        circular_error_s_per_day=SECONDS_PER_DAY * (1.0 - state.period_small_s / state.period_s),
+        rate_s_per_day=state.rate_s_per_day,
+        temperature_coefficient_s_per_day_per_k=sens.temperature_s_per_day_per_k,
+        pressure_coefficient_s_per_day_per_hpa=sens.pressure_s_per_day_per_hpa,
+        bob_sensitivity_s_per_day_per_mm=sens.bob_s_per_day_per_mm,
+        peak_speed_m_s=exhibit.peak_speed_m_s,
+        max_pivot_load_n=exhibit.max_pivot_load_n,
+        warnings=_warnings(design, state),
+        target_period_s=state.target_period_s,
+        amplitude_deg=design.swing.amplitude_deg,
+        air_density_kg_m3=state.air_density_kg_m3,
+        effective_inertia_kg_m2=state.inertia_kg_m2,
+        torque_n_m=state.torque_n_m,
+        cautions=_cautions(design, exhibit),
+        sensitivities=sens,
+        budget=rate_budget(design, state, ranges),
+        exhibit=exhibit,
+        bodies=state.bodies,
+        motion=motion(state.inertia_kg_m2, state.torque_n_m, state.stiffness_n_m_per_rad,
+                      state.amplitude_rad, state.period_s, state.period_small_s,
+                      design.swing.quality_factor),
+        phase=phase_portrait(state.inertia_kg_m2, state.torque_n_m, state.stiffness_n_m_per_rad,
+                             state.amplitude_rad),
+        period_curve=period_curve(state),
+    )

@@ -1,0 +1,173 @@
+"""The design: an immutable description of one pendulum, its site and its swing.
+
+All lengths in metres, masses in kilograms, angles in degrees, temperatures in °C, pressures in
+hPa. Positions are distances *down* from the pivot axis at the reference temperature. A design is
+made by :func:`core.fileformat.design_from_dict` (which validates it); editing makes a new one
+(:func:`core.fileformat.with_value`).
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from typing import Literal, Union
+
+__all__ = [
+    "Site", "Suspension", "Rod", "Sleeve", "ClampMount", "SleeveMount", "Bob", "Weight",
+    "Swing", "Target", "RatingNut", "Design", "Part", "BOB_SHAPES",
+]
+
+BOB_SHAPES = ("disc", "lens", "cylinder", "sphere")
+
+
+@dataclass(frozen=True)
+class Site:
+    """Where and in what air the pendulum swings."""
+
+    latitude_deg: float
+    elevation_m: float = 0.0
+    g_m_s2: float | None = None
+    temperature_c: float = 20.0
+    pressure_hpa: float = 1013.25
+
+
+@dataclass(frozen=True)
+class Suspension:
+    """``knife_edge`` (ideal hinge) or ``spring`` (restoring torque stiffness·θ, N·m/rad)."""
+
+    kind: Literal["knife_edge", "spring"] = "knife_edge"
+    stiffness_n_m_per_rad: float = 0.0
+
+
+@dataclass(frozen=True)
+class Rod:
+    """A round uniform rod hanging from ``top_m`` below the pivot."""
+
+    name: str
+    material: str
+    top_m: float
+    length_m: float
+    diameter_m: float
+    mass_kg: float | None = None
+    kind: Literal["rod"] = "rod"
+
+
+@dataclass(frozen=True)
+class Sleeve:
+    """A tube standing on the lower end of rod ``on``; a bob may rest on its top."""
+
+    name: str
+    material: str
+    on: str
+    length_m: float
+    outer_diameter_m: float
+    inner_diameter_m: float
+    mass_kg: float | None = None
+    kind: Literal["sleeve"] = "sleeve"
+
+
+@dataclass(frozen=True)
+class ClampMount:
+    """Bob centre fixed to rod ``on`` at ``centre_m`` below the pivot."""
+
+    on: str
+    centre_m: float
+    kind: Literal["clamp"] = "clamp"
+
+
+@dataclass(frozen=True)
+class SleeveMount:
+    """Bob resting on the top of sleeve ``on``."""
+
+    on: str
+    kind: Literal["on_sleeve"] = "on_sleeve"
+
+
+@dataclass(frozen=True)
+class Bob:
+    """The bob: ``disc`` and ``lens`` use diameter and thickness, ``cylinder`` diameter and
+    height, ``sphere`` diameter only."""
+
+    name: str
+    shape: Literal["disc", "lens", "cylinder", "sphere"]
+    material: str
+    mount: ClampMount | SleeveMount
+    diameter_m: float
+    thickness_m: float | None = None
+    height_m: float | None = None
+    mass_kg: float | None = None
+    kind: Literal["bob"] = "bob"
+
+    @property
+    def half_height_m(self) -> float:
+        """Half the bob's vertical extent at the reference temperature, m."""
+        if self.shape == "cylinder":
+            assert self.height_m is not None
+            return self.height_m / 2.0
+        return self.diameter_m / 2.0
+
+
+@dataclass(frozen=True)
+class Weight:
+    """A point mass (trim weight) at ``at_m`` below the pivot, carried by rod ``on``."""
+
+    name: str
+    mass_kg: float
+    at_m: float
+    on: str
+    kind: Literal["weight"] = "weight"
+
+
+Part = Union[Rod, Sleeve, Bob, Weight]
+
+
+@dataclass(frozen=True)
+class Swing:
+    """Working semi-arc (degrees) and quality factor (None: no damping)."""
+
+    amplitude_deg: float
+    quality_factor: float | None = None
+
+
+@dataclass(frozen=True)
+class Target:
+    """What the clock should beat: a period (s) or beats per hour; both None: no target."""
+
+    period_s: float | None = None
+    beats_per_hour: float | None = None
+
+    @property
+    def target_period_s(self) -> float | None:
+        """The target full period, s, whichever way it was given."""
+        if self.period_s is not None:
+            return self.period_s
+        if self.beats_per_hour is not None:
+            return 7200.0 / self.beats_per_hour
+        return None
+
+
+@dataclass(frozen=True)
+class RatingNut:
+    """Thread pitch of the rating nut, m per turn (None: no nut)."""
+
+    pitch_m: float | None = None
+
+
+@dataclass(frozen=True)
+class Design:
+    """One pendulum design (see DESIGN §3 for the file form)."""
+
+    name: str
+    reference_temperature_c: float
+    site: Site
+    suspension: Suspension
+    parts: tuple[Part, ...]
+    swing: Swing
+    target: Target = Target()
+    rating_nut: RatingNut = RatingNut()
+
+    def part(self, name: str) -> Part:
+        """The part called ``name`` (``KeyError`` when absent)."""
+        for p in self.parts:
+            if p.name == name:
+                return p
+        raise KeyError(name)

@@ -1,0 +1,136 @@
+"""The pendulum as it swings under given conditions: gravity, air, inertia, torque, periods.
+
+:func:`pendulum_state` is the one place a design becomes equation-of-motion coefficients and
+periods; the readout, the curves, the sensitivities, the solver and the sweeps all use it.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+from .air import air_density
+from .design import Bob, Design
+from .errors import DesignError
+from .gravity import normal_gravity
+from .mass_properties import Body, MassProperties, layout, mass_properties
+from .period import period_exact_and_slopes, period_small
+
+__all__ = ["PendulumState", "pendulum_state", "SECONDS_PER_DAY"]
+
+SECONDS_PER_DAY = 86400.0
+
+
+@dataclass(frozen=True)
+class PendulumState:
+    """Coefficients and periods of one design under one set of conditions.
+
+    Attributes
+    ----------
+    g_m_s2 : local gravity, m/s².
+    air_density_kg_m3 : kg/m³ (0 in vacuum).
+    inertia_kg_m2 : I, moment of inertia about the pivot including the air carried along, kg·m².
+    torque_n_m : A = g Σ(m − ρV) z, N·m (gravity torque per unit sin θ, buoyancy included).
+    stiffness_n_m_per_rad : k, N·m/rad.
+    amplitude_rad : semi-arc θ₀, rad.
+    period_s, period_small_s : exact and linearised full periods, s.
+    period_slope_torque, period_slope_stiffness : ∂T/∂A and ∂T/∂k.
+    """
+
+    design: Design
+    temperature_c: float
+    pressure_hpa: float
+    g_m_s2: float
+    air_density_kg_m3: float
+    bodies: tuple[Body, ...]
+    mass: MassProperties
+    inertia_kg_m2: float
+    torque_n_m: float
+    stiffness_n_m_per_rad: float
+    amplitude_rad: float
+    period_s: float
+    period_small_s: float
+    period_slope_torque: float
+    period_slope_stiffness: float
+
+    @property
+    def target_period_s(self) -> float | None:
+        return self.design.target.target_period_s
+
+    @property
+    def rate_s_per_day(self) -> float | None:
+        """Seconds gained per day against the target (positive: the clock gains)."""
+        t = self.target_period_s
+        return None if t is None else SECONDS_PER_DAY * (t / self.period_s - 1.0)
+
+    @property
+    def rate_per_period_change(self) -> float:
+        """d(rate)/dT, (s/day)/s: −86400·T_target/T² (the clock's own T when no target)."""
+        t = self.target_period_s or self.period_s
+        return -SECONDS_PER_DAY * t / self.period_s**2
+
+    def period_change(self, d_inertia: float, d_torque: float, d_stiffness: float = 0.0) -> float:
+        """First-order change of the exact period, s, for small changes of I, A and k."""
+        return (self.period_s / (2.0 * self.inertia_kg_m2) * d_inertia
+                + self.period_slope_torque * d_torque
+                + self.period_slope_stiffness * d_stiffness)
+
+    def rate_change(self, d_inertia: float, d_torque: float, d_stiffness: float = 0.0) -> float:
+        """First-order change of the rate, s/day, for small changes of I, A and k."""
+        return self.rate_per_period_change * self.period_change(d_inertia, d_torque, d_stiffness)
+
+    def main_bob(self) -> Body | None:
+        """The heaviest bob as it hangs, or None when the design has no bob."""
+        bobs = [b for b in self.bodies if b.kind == "bob"]
+        return max(bobs, key=lambda b: b.mass_kg) if bobs else None
+
+
+def gravity_at(design: Design, elevation_m: float | None = None) -> float:
+    """Local g, m/s²: the site's override, or WGS84 normal gravity at latitude and elevation."""
+    site = design.site
+    if site.g_m_s2 is not None:
+        return site.g_m_s2
+    h = site.elevation_m if elevation_m is None else elevation_m
+    return normal_gravity(site.latitude_deg, h)
+
+
+def pendulum_state(design: Design, *, temperature_c: float | None = None,
+                   pressure_hpa: float | None = None, elevation_m: float | None = None,
+                   amplitude_deg: float | None = None) -> PendulumState:
+    """Evaluate ``design`` under its site's conditions, or the ones overridden here.
+
+    Raises
+    ------
+    DesignError
+        ``field='parts'`` when the centre of mass (less buoyancy) is not below the pivot.
+    """
+    site = design.site
+    t = site.temperature_c if temperature_c is None else temperature_c
+    p = site.pressure_hpa if pressure_hpa is None else pressure_hpa
+    amp = design.swing.amplitude_deg if amplitude_deg is None else amplitude_deg
+    g = gravity_at(design, elevation_m)
+    rho = air_density(p, t)
+    bodies = layout(design, t)
+    mass = mass_properties(bodies, rho)
+    torque = g * mass.effective_first_moment_kg_m
+    if not torque > 0.0 or not math.isfinite(torque):
+        raise DesignError("parts", "the centre of mass must hang below the pivot (the design's "
+                                   f"first moment Σ m·z is {mass.first_moment_kg_m:.4g} kg·m)")
+    inertia = mass.effective_inertia_kg_m2
+    k = design.suspension.stiffness_n_m_per_rad
+    theta0 = math.radians(amp)
+    periods, slope_a, slope_k = period_exact_and_slopes(inertia, torque, k, [theta0])
+    return PendulumState(design, t, p, g, rho, bodies, mass, inertia, torque, k, theta0,
+                         float(periods[0]), period_small(inertia, torque, k), float(slope_a[0]),
+                         float(slope_k[0]))
+
+
+def bob_index(design: Design, state: PendulumState) -> int | None:
+    """Index in ``design.parts`` of the main (heaviest) bob."""
+    bob = state.main_bob()
+    if bob is None:
+        return None
+    for i, p in enumerate(design.parts):
+        if isinstance(p, Bob) and p.name == bob.name:
+            return i
+    return None
