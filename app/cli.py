@@ -7,6 +7,7 @@ from __future__ import annotations
 
 import argparse
 import json
+import os
 import sys
 from pathlib import Path
 from typing import Any, Sequence
@@ -77,6 +78,12 @@ def main(argv: Sequence[str] | None = None) -> int:
     except _UsageError as exc:
         print(f"penduline: {exc}", file=sys.stderr)
         return 2
+    except BrokenPipeError:  # output piped into a pager or `head` that closed early
+        try:
+            sys.stdout = open(os.devnull, "w")
+        except OSError:
+            pass
+        return 0
     except KeyboardInterrupt:
         return 1
     except Exception as exc:  # the last line of defence: one line, no traceback

@@ -34,7 +34,8 @@ class Sensitivities:
     rating_nut_s_per_day_per_turn : one turn of the rating nut *raising* the bob (positive).
     trim_s_per_day_per_g : 1 g added at ``trim_height_m``.
     trim_height_m : height of the trim tray, m below the pivot.
-    null_height_m : where a small added mass changes nothing (centre of oscillation), m.
+    null_height_m : where a small added mass changes nothing, m (the centre of oscillation
+        I/(M h) in vacuum without a spring; air and a spring move it).
     temperature_s_per_day_per_k : d(rate)/dT of the whole model, centred ±0.5 K.
     pressure_s_per_day_per_hpa : d(rate)/dp, centred ±1 hPa (forward from vacuum).
     arc_s_per_day_per_0_1_deg : rate change for 0.1° more semi-arc, centred step.
