@@ -14,7 +14,7 @@ import numpy as np
 from numpy.typing import NDArray
 
 from .design import Bob, ClampMount, Design, Rod
-from .errors import DesignError
+from .errors import DesignError, guarded
 from .exhibit import ExhibitFigures, exhibit_figures
 from .fileformat import design_from_dict, design_to_dict
 from .mass_properties import Body
@@ -197,6 +197,7 @@ def period_curve(state: PendulumState) -> PeriodCurve:
     return PeriodCurve(amps, periods, SECONDS_PER_DAY * (1.0 - state.period_small_s / periods))
 
 
+@guarded("design")
 def analyse(design: Design | dict[str, Any], *, trim_height_m: float | None = None,
             budget_ranges: BudgetRanges = BudgetRanges()) -> Result:
     """Analyse a design: figures, sensitivities, budget, exhibit figures and curves.
@@ -216,12 +217,10 @@ def analyse(design: Design | dict[str, Any], *, trim_height_m: float | None = No
     DesignError
         Whatever is wrong with the design, naming the field. Nothing else escapes.
     """
-    try:
-        return _analyse(_validated(design), trim_height_m, budget_ranges)
-    except DesignError:
-        raise
-    except (ArithmeticError, ValueError) as exc:
-        raise DesignError("design", f"cannot be computed ({exc})") from None
+    if trim_height_m is not None:
+        from .fileformat import check_number
+        check_number("trim_height_m", trim_height_m)
+    return _analyse(_validated(design), trim_height_m, budget_ranges)
 
 
 def _analyse(design: Design, trim_height_m: float | None, ranges: BudgetRanges) -> Result:

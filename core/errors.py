@@ -2,7 +2,12 @@
 
 from __future__ import annotations
 
-__all__ = ["DesignError"]
+import functools
+from typing import Any, Callable, TypeVar
+
+F = TypeVar("F", bound=Callable[..., Any])
+
+__all__ = ["DesignError", "guarded"]
 
 
 class DesignError(ValueError):
@@ -21,3 +26,29 @@ class DesignError(ValueError):
         super().__init__(f"{field}: {message}")
         self.field = field
         self.reason = message
+
+
+def guarded(field: str) -> Callable[[F], F]:
+    """Decorate a public core function so that nothing but :class:`DesignError` escapes it.
+
+    An unexpected exception (a defect, or input of a kind no check foresaw) is reported as a
+    ``DesignError`` on ``field`` naming the exception type, never as a traceback.
+    """
+
+    def wrap(func: F) -> F:
+        @functools.wraps(func)
+        def inner(*args: Any, **kwargs: Any) -> Any:
+            try:
+                return func(*args, **kwargs)
+            except DesignError:
+                raise
+            except RecursionError:
+                raise DesignError(field, "is nested too deeply") from None
+            except MemoryError:
+                raise DesignError(field, "is too large to process") from None
+            except Exception as exc:  # noqa: BLE001 - the contract: only DesignError escapes
+                raise DesignError(field, f"cannot be used ({type(exc).__name__}: {exc})"
+                                  ) from None
+        return inner  # type: ignore[return-value]
+
+    return wrap

@@ -18,7 +18,7 @@ from typing import Any, Callable
 
 from .design import (BOB_SHAPES, Bob, ClampMount, Design, Part, RatingNut, Rod, Site, Sleeve,
                      SleeveMount, Suspension, Swing, Target, Weight)
-from .errors import DesignError
+from .errors import DesignError, guarded
 from .materials import MATERIALS
 
 __all__ = [
@@ -43,13 +43,13 @@ RANGES: dict[str, tuple[float, float, bool, bool]] = {
     "pressure_hpa": (0.0, 1200.0, False, False),
     "stiffness_n_m_per_rad": (0.0, 1.0e6, False, False),
     "top_m": (-1000.0, 1000.0, False, False),
-    "length_m": (0.0, 1000.0, True, False),
-    "diameter_m": (0.0, 10.0, True, False),
-    "outer_diameter_m": (0.0, 10.0, True, False),
-    "inner_diameter_m": (0.0, 10.0, True, False),
-    "thickness_m": (0.0, 10.0, True, False),
-    "height_m": (0.0, 100.0, True, False),
-    "mass_kg": (0.0, 1.0e6, True, False),
+    "length_m": (1e-4, 1000.0, False, False),
+    "diameter_m": (1e-5, 10.0, False, False),
+    "outer_diameter_m": (1e-5, 10.0, False, False),
+    "inner_diameter_m": (1e-5, 10.0, False, False),
+    "thickness_m": (1e-5, 10.0, False, False),
+    "height_m": (1e-5, 100.0, False, False),
+    "mass_kg": (1e-6, 1.0e6, False, False),
     "at_m": (-1000.0, 1000.0, False, False),
     "centre_m": (-1000.0, 1000.0, False, False),
     "amplitude_deg": (0.0, 179.9, True, False),
@@ -186,9 +186,6 @@ def _parse_suspension(r: _Reader | None) -> Suspension:
     if kind == "knife_edge" and k != 0.0:
         raise DesignError(r.at("stiffness_n_m_per_rad"),
                           "a knife edge has no stiffness: set it to 0 or choose kind 'spring'")
-    if kind == "spring" and k == 0.0:
-        raise DesignError(r.at("stiffness_n_m_per_rad"),
-                          "a suspension spring needs a stiffness above 0 N·m/rad")
     return Suspension(kind, k)  # type: ignore[arg-type]
 
 
@@ -421,6 +418,7 @@ def _part_to_dict(p: Part) -> dict[str, Any]:
     return {"kind": "weight", "name": p.name, "mass_kg": p.mass_kg, "at_m": p.at_m, "on": p.on}
 
 
+@guarded("design")
 def design_to_dict(design: Design) -> dict[str, Any]:
     """The file form (format 1) of ``design``; every key written, SI units."""
     s = design.site
@@ -445,6 +443,7 @@ def design_to_dict(design: Design) -> dict[str, Any]:
     return d
 
 
+@guarded("file")
 def loads_design(text: str | bytes) -> Design:
     """Parse and validate design-file text."""
     return design_from_dict(_loads_json(text))
@@ -485,11 +484,13 @@ def dumps_design(design: Design) -> str:
     return json.dumps(design_to_dict(design), indent=2, ensure_ascii=False) + "\n"
 
 
+@guarded("file")
 def load_design(path: str | os.PathLike[str]) -> Design:
     """Read and validate a design file; the file is never changed."""
     return loads_design(_read_bytes(path))
 
 
+@guarded("file")
 def read_design_dict(path: str | os.PathLike[str]) -> Any:
     """The raw JSON object of a design file (not validated beyond JSON itself)."""
     return _loads_json(_read_bytes(path))
@@ -513,11 +514,13 @@ def _read_bytes(path: str | os.PathLike[str]) -> bytes:
         raise DesignError("file", f"{p} cannot be read ({exc.strerror or exc})") from None
 
 
+@guarded("file")
 def save_design(design: Design, path: str | os.PathLike[str]) -> None:
     """Write ``design`` to ``path`` atomically (temporary file, flush, rename)."""
     write_text_atomic(path, dumps_design(design))
 
 
+@guarded("file")
 def write_text_atomic(path: str | os.PathLike[str], text: str) -> None:
     """Write ``text`` (UTF-8) to ``path`` through a temporary file renamed over it.
 
@@ -564,6 +567,7 @@ def _steps(path: str) -> list[str | int]:
     return steps
 
 
+@guarded("field")
 def get_value(obj: Any, path: str) -> Any:
     """The value at ``path`` in a design dict."""
     cur = obj
@@ -575,6 +579,7 @@ def get_value(obj: Any, path: str) -> Any:
     return cur
 
 
+@guarded("field")
 def set_in_dict(obj: Any, path: str, value: Any) -> Any:
     """A deep copy of design dict ``obj`` with ``path`` set to ``value`` (the key must exist
     or its parent object must)."""
@@ -596,6 +601,7 @@ def set_in_dict(obj: Any, path: str, value: Any) -> Any:
     return new
 
 
+@guarded("field")
 def with_value(design: Design, path: str, value: Any) -> Design:
     """A new validated design equal to ``design`` but with ``path`` set to ``value``."""
     return design_from_dict(set_in_dict(design_to_dict(design), path, value))

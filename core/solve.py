@@ -16,7 +16,7 @@ import numpy as np
 from numpy.typing import NDArray
 
 from .design import Design
-from .errors import DesignError
+from .errors import DesignError, guarded
 from .fileformat import check_number, design_from_dict, design_to_dict, field_range, get_value, set_in_dict
 from .model import SECONDS_PER_DAY, pendulum_state
 from .tuning import sensitivities
@@ -82,6 +82,7 @@ def _goal_function(goal: Goal, target_period_s: float | None) -> Callable[[Desig
     return temperature
 
 
+@guarded("field")
 def solve_field(design: Design, path: str, goal: Goal = "period",
                 target_period_s: float | None = None, scan_points: int = 161) -> Solution:
     """Find the value of field ``path`` that meets the goal.
@@ -178,6 +179,7 @@ class SweepTable:
     reasons: tuple[str, ...]
 
 
+@guarded("field")
 def sweep_field(design: Design, path: str, start: float, stop: float, points: int = 101
                 ) -> SweepTable:
     """Exact period and rate (s/day) for ``points`` values of field ``path`` (``pivot``: the
