@@ -14,7 +14,7 @@ from .design import Bob, Design
 from .errors import DesignError
 from .gravity import normal_gravity
 from .mass_properties import Body, MassProperties, layout, mass_properties
-from .period import period_exact_and_slopes, period_small
+from .period import period_at, period_exact_and_slopes, period_small
 
 __all__ = ["PendulumState", "pendulum_state", "SECONDS_PER_DAY"]
 
@@ -96,8 +96,11 @@ def gravity_at(design: Design, elevation_m: float | None = None) -> float:
 
 def pendulum_state(design: Design, *, temperature_c: float | None = None,
                    pressure_hpa: float | None = None, elevation_m: float | None = None,
-                   amplitude_deg: float | None = None) -> PendulumState:
+                   amplitude_deg: float | None = None, slopes: bool = True) -> PendulumState:
     """Evaluate ``design`` under its site's conditions, or the ones overridden here.
+
+    With ``slopes=False`` only the period is computed (the period slopes are NaN): the fast
+    path for the many perturbed evaluations of sensitivities, budgets and solvers.
 
     Raises
     ------
@@ -119,10 +122,13 @@ def pendulum_state(design: Design, *, temperature_c: float | None = None,
     inertia = mass.effective_inertia_kg_m2
     k = design.suspension.stiffness_n_m_per_rad
     theta0 = math.radians(amp)
-    periods, slope_a, slope_k = period_exact_and_slopes(inertia, torque, k, [theta0])
+    if slopes:
+        periods, slope_a, slope_k = period_exact_and_slopes(inertia, torque, k, [theta0])
+        period, d_a, d_k = float(periods[0]), float(slope_a[0]), float(slope_k[0])
+    else:
+        period, d_a, d_k = period_at(inertia, torque, k, theta0), math.nan, math.nan
     return PendulumState(design, t, p, g, rho, bodies, mass, inertia, torque, k, theta0,
-                         float(periods[0]), period_small(inertia, torque, k), float(slope_a[0]),
-                         float(slope_k[0]))
+                         period, period_small(inertia, torque, k), d_a, d_k)
 
 
 def bob_index(design: Design, state: PendulumState) -> int | None:

@@ -21,12 +21,13 @@ Gauss–Legendre with the node count doubled until it converges. [computed]
 
 from __future__ import annotations
 
+import math
 from functools import lru_cache
 
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
-__all__ = ["period_small", "period_exact", "period_exact_and_slopes", "agm"]
+__all__ = ["period_small", "period_exact", "period_exact_and_slopes", "period_at", "agm"]
 
 FloatArray = NDArray[np.float64]
 
@@ -128,3 +129,18 @@ def period_exact(inertia_kg_m2: float, torque_n_m: float, stiffness_n_m_per_rad:
     if stiffness_n_m_per_rad == 0.0:
         return 2.0 * np.pi * np.sqrt(inertia_kg_m2 / torque_n_m) / agm(1.0, np.cos(theta0 / 2.0))
     return _spring_periods(inertia_kg_m2, torque_n_m, stiffness_n_m_per_rad, theta0)[0]
+
+
+def period_at(inertia_kg_m2: float, torque_n_m: float, stiffness_n_m_per_rad: float,
+              amplitude_rad: float) -> float:
+    """Exact full period, s, at one amplitude (rad): the scalar fast path of
+    :func:`period_exact`, for the many single evaluations of sensitivities and solvers."""
+    if stiffness_n_m_per_rad != 0.0:
+        return float(_spring_periods(inertia_kg_m2, torque_n_m, stiffness_n_m_per_rad,
+                                     np.array([amplitude_rad]))[0][0])
+    a, b = 1.0, math.cos(amplitude_rad / 2.0)
+    for _ in range(40):
+        if abs(a - b) <= _TOL * a:
+            break
+        a, b = 0.5 * (a + b), math.sqrt(a * b)
+    return 2.0 * math.pi * math.sqrt(inertia_kg_m2 / torque_n_m) / (0.5 * (a + b))

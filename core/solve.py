@@ -73,7 +73,7 @@ def _goal_function(goal: Goal, target_period_s: float | None) -> Callable[[Desig
             raise DesignError("target.period_s", "give a target period to solve for")
 
         def period_gap(d: Design) -> float:
-            return pendulum_state(d).period_s / target_period_s - 1.0
+            return pendulum_state(d, slopes=False).period_s / target_period_s - 1.0
         return period_gap
 
     def temperature(d: Design) -> float:
@@ -198,7 +198,7 @@ def sweep_field(design: Design, path: str, start: float, stop: float, points: in
         try:
             d_obj = shift_pivot(base, float(x)) if path == "pivot" else set_in_dict(
                 base, path, float(x))
-            periods[i] = pendulum_state(design_from_dict(d_obj)).period_s
+            periods[i] = pendulum_state(design_from_dict(d_obj), slopes=False).period_s
             reasons.append("")
         except DesignError as exc:
             reasons.append(str(exc))

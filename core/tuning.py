@@ -104,8 +104,8 @@ def _centred(design: Design, state: PendulumState, key: str, value: float, step:
         lo, hi = lowest, lowest + step
     # Against the state's own period when there is no target: a clock's change of rate.
     target = state.target_period_s or state.period_s
-    lo_t = pendulum_state(design, **{key: lo}).period_s
-    hi_t = pendulum_state(design, **{key: hi}).period_s
+    lo_t = pendulum_state(design, slopes=False, **{key: lo}).period_s
+    hi_t = pendulum_state(design, slopes=False, **{key: hi}).period_s
     return 86400.0 * (target / hi_t - target / lo_t)
 
 
@@ -199,8 +199,8 @@ def rate_budget(design: Design, state: PendulumState,
     amp = design.swing.amplitude_deg
 
     def line(cause: str, unit: str, key: str, low: float, high: float) -> BudgetLine:
-        r_lo = 86400.0 * (target / pendulum_state(design, **{key: low}).period_s - 1.0)
-        r_hi = 86400.0 * (target / pendulum_state(design, **{key: high}).period_s - 1.0)
+        r_lo = 86400.0 * (target / pendulum_state(design, slopes=False, **{key: low}).period_s - 1.0)
+        r_hi = 86400.0 * (target / pendulum_state(design, slopes=False, **{key: high}).period_s - 1.0)
         return BudgetLine(cause, unit, low, high, r_lo, r_hi)
 
     t, p = site.temperature_c, site.pressure_hpa
