@@ -1,0 +1,261 @@
+"""The swing preview: drawn to scale from the design, posed by the exact motion, animated by a
+timer that only rotates existing items and can be stopped."""
+
+from __future__ import annotations
+
+import math
+import os
+from pathlib import Path
+
+os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
+
+import numpy as np
+import pytest
+
+from core import analyse, design_from_dict, load_design, with_value
+from core.analysis import LOAD_CAUTION
+from core.fileformat import design_to_dict
+
+from app import theme
+from app.preview import (SPEEDS, SwingPreview, SwingPreviewControls, deepest_point_m,
+                         outlines_from_bodies)
+
+EXAMPLES = Path(__file__).resolve().parents[2] / "resources" / "examples"
+
+
+@pytest.fixture(scope="module")
+def atrium():
+    return analyse(load_design(EXAMPLES / "atrium_pendulum.pendulum.json"))
+
+
+@pytest.fixture(scope="module")
+def regulator():
+    return analyse(load_design(EXAMPLES / "workshop_regulator.pendulum.json"))
+
+
+@pytest.fixture
+def preview(qtbot):
+    view = SwingPreview()
+    qtbot.addWidget(view)
+    view.resize(800, 520)
+    yield view
+    view.set_playing(False)
+    assert not view.is_playing()
+
+
+def _bob_design(shape: str, centre_m: float = 0.9, **size: float) -> dict:
+    """A 1 m steel rod with a 0.2 m brass bob of ``shape`` clamped at ``centre_m``; no
+    damping."""
+    bob = {"kind": "bob", "name": "bob", "shape": shape, "material": "brass",
+           "mount": {"kind": "clamp", "on": "rod", "centre_m": centre_m}, "diameter_m": 0.2,
+           "mass_kg": None, **size}
+    return {"format": "penduline-design", "version": 1, "name": f"{shape} test",
+            "reference_temperature_c": 20.0,
+            "site": {"latitude_deg": 45.0, "elevation_m": 0.0, "g_m_s2": None,
+                     "temperature_c": 20.0, "pressure_hpa": 1013.25},
+            "parts": [{"kind": "rod", "name": "rod", "material": "steel", "top_m": 0.0,
+                       "length_m": 1.0, "diameter_m": 0.01, "mass_kg": None}, bob],
+            "swing": {"amplitude_deg": 20.0, "quality_factor": None}}
+
+
+class TestDrawnGeometry:
+    def test_atrium_matches_the_design_file(self, preview, atrium):
+        # Design file: 18 m wire of 2.5 mm from the pivot; 0.32 m sphere centred at 18.15 m.
+        # Site 2 K below the reference temperature: steel shrinks by 11.5e-6/K · 2 K ≈ 2.3e-5.
+        preview.show_result(atrium)
+        ext = preview.drawn_extents()
+        assert set(ext) == {"wire", "sphere"}
+        top, bottom, width = ext["wire"]
+        assert top == 0.0
+        assert bottom == pytest.approx(18.0, rel=1e-4)
+        assert width == pytest.approx(0.0025, rel=1e-4)
+        top, bottom, width = ext["sphere"]
+        assert width == pytest.approx(0.32, rel=1e-4)
+        assert bottom - top == pytest.approx(0.32, rel=1e-4)
+        assert 0.5 * (top + bottom) == pytest.approx(18.15, rel=1e-4)
+        assert preview.drawn_shape("wire") == "rectangle"
+        assert preview.drawn_shape("sphere") == "circle"
+
+    def test_every_part_matches_its_body(self, preview, regulator):
+        preview.show_result(regulator)
+        ext = preview.drawn_extents()
+        for body in regulator.bodies:
+            top, bottom, width = ext[body.name]
+            assert (top, bottom, width) == pytest.approx(
+                (body.top_m, body.bottom_m, body.width_m), abs=1e-12)
+
+    def test_regulator_stack(self, preview, regulator):
+        # Workshop regulator file: invar rod 1.1131 m × 8 mm; steel sleeve 55 mm × 20 mm on
+        # the rod end; 110 × 120 mm cylinder bob resting on the sleeve; trim weight at 0.45 m.
+        preview.show_result(regulator)
+        ext = preview.drawn_extents()
+        assert ext["rod"] == pytest.approx((0.0, 1.1131, 0.008), abs=1e-9)
+        assert ext["sleeve"] == pytest.approx((1.1131 - 0.055, 1.1131, 0.02), abs=1e-9)
+        assert ext["bob"] == pytest.approx((1.1131 - 0.055 - 0.12, 1.1131 - 0.055, 0.11),
+                                           abs=1e-9)
+        assert ext["trim"] == pytest.approx((0.45, 0.45, 0.0), abs=1e-9)
+        assert [preview.drawn_shape(n) for n in ("rod", "sleeve", "bob", "trim")] == [
+            "rectangle", "rectangle", "rectangle", "point"]
+
+    @pytest.mark.parametrize("shape, size, drawn", [
+        ("disc", {"thickness_m": 0.03}, "circle"),
+        ("lens", {"thickness_m": 0.04}, "circle"),
+        ("sphere", {}, "circle"),
+        ("cylinder", {"height_m": 0.15}, "rectangle"),
+    ])
+    def test_bob_shapes(self, preview, shape, size, drawn):
+        result = analyse(design_from_dict(_bob_design(shape, **size)))
+        preview.show_result(result)
+        top, bottom, width = preview.drawn_extents()["bob"]
+        assert preview.drawn_shape("bob") == drawn
+        assert width == pytest.approx(0.2, abs=1e-12)
+        height = size.get("height_m", 0.2)  # disc and lens are seen face-on: a 0.2 m circle
+        assert bottom - top == pytest.approx(height, abs=1e-12)
+        assert 0.5 * (top + bottom) == pytest.approx(0.9, abs=1e-12)
+
+    def test_deepest_point_of_a_wide_cylinder_is_a_corner(self):
+        # Cylinder 0.2 m wide centred at 0.95 m, 0.15 m high: bottom at 1.025 m, below the
+        # rod's end. Its corner at radius √(1.025² + 0.1²) is reached at 5.57° < 20°, deeper
+        # than the middle of its bottom; within ±3° it is not reached.
+        result = analyse(design_from_dict(_bob_design("cylinder", 0.95, height_m=0.15)))
+        outlines = outlines_from_bodies(result.bodies)
+        deepest = deepest_point_m(outlines, math.radians(20.0))
+        assert deepest == pytest.approx(math.hypot(1.025, 0.1), rel=1e-12)
+        phi = math.atan2(0.1, 1.025)
+        assert deepest_point_m(outlines, math.radians(3.0)) == pytest.approx(
+            math.hypot(1.025, 0.1) * math.cos(phi - math.radians(3.0)), rel=1e-12)
+
+    def test_atrium_deepest_point_is_the_exhibit_figure(self, preview, atrium):
+        preview.show_result(atrium)
+        assert preview.deepest_point_m() == pytest.approx(atrium.exhibit.lowest_point_m,
+                                                          rel=1e-12)
+
+
+class TestPose:
+    def test_release_pose_is_the_full_semi_arc_to_the_right(self, preview, atrium):
+        preview.show_result(atrium)
+        preview.set_time(0.0)
+        theta0 = math.radians(atrium.amplitude_deg)
+        assert preview.shown_angle_rad() == pytest.approx(theta0, rel=1e-9)
+        r = next(b for b in atrium.bodies if b.kind == "bob").centre_m
+        x, y = preview.drawn_point("sphere")
+        assert x == pytest.approx(r * math.sin(theta0), rel=1e-9)
+        assert y == pytest.approx(r * math.cos(theta0), rel=1e-9)
+
+    def test_angles_are_the_core_motion_samples(self, preview, atrium):
+        preview.show_result(atrium)
+        m = atrium.motion
+        for i in (0, 57, 300, 611, 1199):
+            preview.set_time(float(m.time_s[i]))
+            assert preview.shown_angle_rad() == pytest.approx(float(m.angle_rad[i]),
+                                                              abs=1e-12)
+        # Damped (Q given): the sampled span is played from release, then starts again.
+        preview.set_time(float(m.time_s[-1]) + float(m.time_s[57]))
+        assert preview.shown_angle_rad() == pytest.approx(float(m.angle_rad[57]), abs=1e-12)
+
+    def test_undamped_motion_repeats_every_period(self, preview, regulator):
+        undamped = analyse(with_value(regulator.design, "swing.quality_factor", None))
+        preview.show_result(undamped)
+        t = np.linspace(0.0, undamped.period_s, 37)
+        now = [preview.angle_at(x) for x in t]
+        later = [preview.angle_at(x + 5 * undamped.period_s) for x in t]
+        assert later == pytest.approx(now, abs=1e-12)
+        assert preview.angle_at(0.5 * undamped.period_s) == pytest.approx(
+            -math.radians(undamped.amplitude_deg), rel=1e-9)
+
+    def test_baseline_is_a_ghost(self, preview, regulator):
+        longer = analyse(with_value(regulator.design, "parts[0].length_m", 1.2))
+        preview.show_result(regulator, longer)
+        assert preview.shows_baseline
+        assert "baseline" in preview.info_text()
+        preview.show_result(regulator)
+        assert not preview.shows_baseline
+
+
+class TestAnimation:
+    def test_speed_factors(self, preview, regulator):
+        preview.show_result(regulator)
+        assert SPEEDS == (1.0, 0.5, 0.25, 0.1)
+        preview.set_speed(0.25)
+        preview.set_time(0.0)
+        preview.advance(0.2)
+        assert preview.time_s == pytest.approx(0.05, abs=1e-15)
+        preview.set_speed(0.1)
+        preview.advance(0.2)
+        assert preview.time_s == pytest.approx(0.07, abs=1e-15)
+        assert preview.shown_angle_rad() == pytest.approx(preview.angle_at(0.07), abs=1e-15)
+        assert "1/10×" in preview.info_text()
+        with pytest.raises(ValueError, match="speed"):
+            preview.set_speed(2.0)
+
+    def test_timer_runs_rotates_only_and_stops(self, qtbot, preview, atrium):
+        preview.show_result(atrium)
+        preview.set_time(0.0)
+        items_before = set(map(id, preview.scene().items()))
+        with qtbot.waitSignal(preview.playingChanged):
+            preview.set_playing(True)
+        assert preview.is_playing()
+        qtbot.waitUntil(lambda: preview.time_s > 0.05, timeout=5000)
+        assert set(map(id, preview.scene().items())) == items_before
+        assert preview.shown_angle_rad() == pytest.approx(preview.angle_at(preview.time_s),
+                                                          abs=1e-15)
+        preview.set_playing(False)
+        assert not preview.is_playing()
+        stopped_at = preview.time_s
+        qtbot.wait(50)
+        assert preview.time_s == stopped_at
+
+
+class TestClearanceAndCaution:
+    def test_clearance_line(self, preview, atrium):
+        preview.show_result(atrium)
+        lowest = atrium.exhibit.lowest_point_m  # 18.3096 m
+        assert preview.clearance_m() is None
+        preview.set_clearance_line(lowest + 0.5)
+        assert preview.clearance_m() == pytest.approx(0.5, abs=1e-12)
+        assert not preview.clearance_reached()
+        assert preview.clearance_colour() == theme.MARKER.lower()
+        preview.set_clearance_line(lowest - 0.1)
+        assert preview.clearance_m() == pytest.approx(-0.1, abs=1e-12)
+        assert preview.clearance_reached()
+        assert preview.clearance_colour() == theme.PROBLEM.lower()
+        preview.set_clearance_line(None)
+        assert preview.clearance_line_m() is None
+
+    def test_load_is_shown_with_its_caution(self, preview, atrium):
+        preview.show_result(atrium)
+        assert f"{atrium.max_pivot_load_n:.4g} N" in preview.info_text()
+        assert LOAD_CAUTION in preview.caution_text()
+
+    def test_spring_caution_for_a_spring_suspension(self, preview):
+        d = _bob_design("sphere")
+        d["suspension"] = {"kind": "spring", "stiffness_n_m_per_rad": 0.5}
+        preview.show_result(analyse(design_from_dict(d)))
+        assert "Suspension-spring" in preview.caution_text()
+
+
+def test_controls_drive_the_preview(qtbot, preview, atrium):
+    preview.show_result(atrium)
+    controls = SwingPreviewControls(preview)
+    qtbot.addWidget(controls)
+    controls.play_button.click()
+    assert preview.is_playing() and controls.play_button.text() == "Pause"
+    controls.play_button.click()
+    assert not preview.is_playing() and controls.play_button.text() == "Play"
+    controls.speed_box.setCurrentIndex(2)
+    assert preview.speed == 0.25
+    preview.set_speed(0.1)
+    assert controls.speed_box.currentText() == "1/10×"
+    controls.line_check.setChecked(True)  # proposes a line 0.5 m below the deepest point
+    expected = round(atrium.exhibit.lowest_point_m + 0.5, 3)  # 18.810 m
+    assert preview.clearance_line_m() == pytest.approx(expected, abs=1e-9)
+    controls.line_depth.setValue(18.0)
+    assert preview.clearance_reached()
+    controls.line_check.setChecked(False)
+    assert preview.clearance_m() is None
+
+
+def test_design_round_trip_of_the_atrium_example():
+    # The exhibit example is a valid format-1 file and keeps its values through a round trip.
+    design = load_design(EXAMPLES / "atrium_pendulum.pendulum.json")
+    assert design_from_dict(design_to_dict(design)) == design
