@@ -9,6 +9,8 @@ merged into one).
 
 from __future__ import annotations
 
+import os
+import stat
 from pathlib import Path
 
 from PySide6.QtCore import QObject, Signal
@@ -16,7 +18,7 @@ from PySide6.QtGui import QUndoCommand, QUndoStack
 
 from core import Design, DesignError, design_from_dict, load_design, save_design
 
-__all__ = ["Document", "EditCommand", "blank_design"]
+__all__ = ["Document", "EditCommand", "blank_design", "read_design_file"]
 
 _MERGE_ID = 0x5EED
 
@@ -40,6 +42,27 @@ def blank_design() -> Design:
         "target": {"period_s": 2.0},
         "rating_nut": {"pitch_m": None},
     })
+
+
+def read_design_file(path: str | Path) -> Design:
+    """Read and validate the design file at ``path`` (the file is never changed).
+
+    Only a regular file is read: a named pipe or a device (``/dev/zero``) would block or never
+    end, so it is refused before the core opens it.
+
+    Raises
+    ------
+    DesignError
+        ``field='file'`` (or the offending field) when the file cannot be used.
+    """
+    p = Path(path)
+    try:
+        mode = os.stat(p).st_mode
+    except (OSError, ValueError):  # missing, unreadable, or a name with a NUL byte:
+        mode = None                 # the core says which, in its own words
+    if mode is not None and not stat.S_ISREG(mode) and not stat.S_ISDIR(mode):
+        raise DesignError("file", f"{p.name} is not a regular file")
+    return load_design(p)
 
 
 class EditCommand(QUndoCommand):
@@ -102,6 +125,7 @@ class Document(QObject):
         self._committed = design
         self._path = Path(path) if path is not None else None
         self._dirty = False
+        self._restored = False  # holds edits recovered after a crash, not yet saved
         self.undo_stack = QUndoStack(self)
         self.undo_stack.cleanChanged.connect(self._update_dirty)
 
@@ -162,17 +186,26 @@ class Document(QObject):
     # ------------------------------------------------------------------ files
     def replace(self, design: Design, path: str | Path | None) -> None:
         """Start over with ``design`` (File ▸ New / Open): empty history, saved state."""
+        self._start_over(design, path, restored=False)
+
+    def restore(self, design: Design, path: str | Path | None) -> None:
+        """Start over with ``design`` recovered after a crash: empty history, **unsaved**, with
+        ``path`` (the file it was being edited from; None when it had none) as its file."""
+        self._start_over(design, path, restored=True)
+
+    def _start_over(self, design: Design, path: str | Path | None, restored: bool) -> None:
+        self._restored = restored
         self.undo_stack.clear()
         self._path = Path(path) if path is not None else None
         self.undo_stack.setClean()
         self._apply(design)
-        self._set_dirty(False)
+        self._set_dirty(restored)
         self.pathChanged.emit(self._path)
 
     def open(self, path: str | Path) -> None:
         """Read the design file at ``path``; raises :class:`core.DesignError` and keeps the
-        current document when the file cannot be used."""
-        self.replace(load_design(path), path)
+        current document (design, path, history, dirty flag) when the file cannot be used."""
+        self.replace(read_design_file(path), path)
 
     def save(self, path: str | Path | None = None) -> None:
         """Write the committed design to ``path`` (default: the document's file) atomically.
@@ -189,6 +222,7 @@ class Document(QObject):
         save_design(self._committed, target)
         changed_path = target != self._path
         self._path = target
+        self._restored = False
         self.undo_stack.setClean()
         self._set_dirty(False)
         if changed_path:
@@ -196,7 +230,8 @@ class Document(QObject):
 
     # ------------------------------------------------------------------ dirty flag
     def _update_dirty(self) -> None:
-        self._set_dirty(not self.undo_stack.isClean() or self._design != self._committed)
+        self._set_dirty(self._restored or not self.undo_stack.isClean()
+                        or self._design != self._committed)
 
     def _set_dirty(self, dirty: bool) -> None:
         if dirty != self._dirty:

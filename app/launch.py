@@ -48,6 +48,7 @@ def run_window(path: str | None, screenshot: str | None) -> int:
     if screenshot:
         return _screenshot(app, window, Path(screenshot))
     window.show()
+    window.offer_recovery()  # edits autosaved by a run that crashed
     return int(app.exec())
 
 

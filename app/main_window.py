@@ -23,11 +23,14 @@ from core import Design, DesignError, Result, analyse
 
 from . import theme
 from .design_panel import DesignPanel, field_label
-from .document import Document, blank_design
+from .document import Document, blank_design, read_design_file
 from .plot_area import PlotArea
 from .plots import MotionPlot, PeriodCurvePlot, PhasePlot, export_plot
 from .preview import SwingPreview
 from .readout_panel import ReadoutPanel
+from .sweep_plot import SweepPlot
+from .recovery import (Autosaver, RecoveryEntry, find_orphans, read_entry, remove_entry,
+                       set_aside)
 from .settings import add_recent_file, app_settings, recent_files
 from .units import UnitSystem
 
@@ -56,9 +59,11 @@ class MainWindow(QMainWindow):
     """The document window."""
 
     def __init__(self, design: Design | None = None, path: str | Path | None = None,
-                 remember_layout: bool = True) -> None:
+                 remember_layout: bool = True, autosave: bool | None = None) -> None:
         """``remember_layout=False`` neither reads nor writes the stored layout and units (for
-        screenshots, which must look the same everywhere)."""
+        screenshots, which must look the same everywhere). ``autosave`` (default: as
+        ``remember_layout``) keeps unsaved edits in the recovery folder (see
+        :mod:`app.recovery`)."""
         super().__init__()
         self._remember = remember_layout
         self.setStyleSheet(theme.STYLE_SHEET)
@@ -71,11 +76,16 @@ class MainWindow(QMainWindow):
         self.last_compute_ms = 0.0
         self._trim_height: float | None = None
         self._computed_key: tuple[Any, ...] | None = None
+        self._problem: DesignError | None = None  # why the shown design cannot be computed
         self._system = _stored_units() if remember_layout else UnitSystem.METRIC
         self._compute_timer = QTimer(self)
         self._compute_timer.setSingleShot(True)
         self._compute_timer.setInterval(COMPUTE_DELAY_MS)
         self._compute_timer.timeout.connect(self.compute_now)
+        self.autosaver: Autosaver | None = None
+        if remember_layout if autosave is None else autosave:
+            self.autosaver = Autosaver(self.document, parent=self)
+            self.autosaver.failed.connect(lambda text: self.statusBar().showMessage(text, 10000))
         self._build_views()
         self._build_menus()
         self.document.designChanged.connect(self._on_design_changed)
@@ -90,7 +100,7 @@ class MainWindow(QMainWindow):
     def _build_views(self) -> None:
         self.design_panel = DesignPanel(self.document, self._system)
         self.plots: list[QWidget] = [MotionPlot(), PhasePlot(), PeriodCurvePlot(),
-                                     SwingPreview()]
+                                     SwingPreview(), SweepPlot()]
         self._stale_plots: set[int] = set()
         self.plot_area = PlotArea(self.plots, DEFAULT_ARRANGEMENT)
         self.plot_area.tabs.currentChanged.connect(lambda _index: self._refresh_plots())
@@ -242,6 +252,7 @@ class MainWindow(QMainWindow):
         try:
             result = analyse(design, trim_height_m=self._trim_height)
         except DesignError as exc:
+            self._problem = exc
             self._show_compute_problem(exc)
             return
         except Exception as exc:  # never let a defect escape into the event loop
@@ -250,6 +261,7 @@ class MainWindow(QMainWindow):
             return
         self.last_compute_ms = (time.perf_counter() - started) * 1000.0
         self.compute_count += 1
+        self._problem = None
         self._show_result(result)
 
     def _show_result(self, result: Result) -> None:
@@ -260,12 +272,17 @@ class MainWindow(QMainWindow):
         self.design_panel.set_result(result)
         if self.compute_count > 1:  # the first analysis also pays one-time imports
             self.compute_label.setText(f"analysis {self.last_compute_ms:.1f} ms")
+        self._reshow_problem()
+
+    def _reshow_problem(self) -> None:
+        """Showing the last good result again (a baseline pinned, units changed) must not
+        hide that the design on view cannot be computed."""
+        if self._problem is not None:
+            self._show_compute_problem(self._problem)
 
     def _shown_plot_indices(self) -> list[int]:
-        """The plots on view: all of them in the grid, the current tab's otherwise."""
-        if self.plot_area.arrangement() == "grid":
-            return list(range(len(self.plots)))
-        return [max(self.plot_area.tabs.currentIndex(), 0)]
+        """The plots on view: the grid's, or the current tab's."""
+        return self.plot_area.shown_indices()
 
     def _refresh_plots(self, everything: bool = False) -> None:
         """Draw the latest result in the plots on view (or all); plots hidden behind another
@@ -324,6 +341,7 @@ class MainWindow(QMainWindow):
         self.unit_actions[system].setChecked(True)
         self.design_panel.set_unit_system(system)
         self.readout.set_unit_system(system)
+        self._reshow_problem()
         if self._remember:
             app_settings().setValue("view/units", system.value)
 
@@ -357,19 +375,23 @@ class MainWindow(QMainWindow):
             self.open_file(name)
 
     def open_file(self, path: str | Path, as_example: bool = False) -> bool:
-        """Open the design at ``path`` (an example opens as an untitled copy)."""
-        if not self.confirm_discard():
-            return False
+        """Open the design at ``path`` (an example opens as an untitled copy).
+
+        The file is read first: a file that cannot be used is refused with a message naming
+        the field, before any question about unsaved edits, and the open document (design,
+        file, history, unsaved state) is left exactly as it was.
+        """
         try:
-            self.document.open(path)
+            design = read_design_file(path)
         except DesignError as exc:
             self.show_message("Cannot open design", f"{Path(path).name}: {exc.field}: "
                                                     f"{exc.reason}")
             return False
+        if not self.confirm_discard():
+            return False
         self._trim_height = None
-        if as_example:
-            self.document.replace(self.document.design, None)
-        else:
+        self.document.replace(design, None if as_example else path)
+        if not as_example:
             add_recent_file(path)
         return True
 
@@ -500,7 +522,61 @@ class MainWindow(QMainWindow):
             event.ignore()
             return
         self.save_layout()
+        if self.autosaver is not None:  # a clean exit: saved or dropped, nothing to recover
+            self.autosaver.close()
         event.accept()
+
+    # ================================================================== recovery
+    def offer_recovery(self) -> bool:
+        """At start-up: offer to restore edits autosaved by a run that did not end cleanly.
+
+        Each left-over session is offered (newest first) until one is restored; it opens as
+        an unsaved document with its original file. A declined session is deleted. An
+        autosave that cannot be read is renamed ``.bad`` (never deleted) and reported.
+        Returns True when a design was restored; never raises.
+        """
+        if self.autosaver is None:
+            return False
+        restored = False
+        for entry in find_orphans(self.autosaver.folder()):
+            try:
+                design = read_entry(entry)
+            except DesignError as exc:
+                kept = set_aside(entry)
+                where = ", ".join(str(p) for p in kept) or str(entry.design_path)
+                self.show_message("Cannot recover design",
+                                  f"An autosaved design could not be read ({exc.field}: "
+                                  f"{exc.reason}). It was kept as {where}.")
+                continue
+            if restored:  # one window holds one document; the rest wait for the next start
+                continue
+            if not self.ask_restore(entry):
+                remove_entry(entry)
+                continue
+            if not self.confirm_discard():
+                continue
+            self._trim_height = None
+            self.document.restore(design, entry.original_path)
+            restored = True
+            if self.autosaver.autosave_now():  # safe in this session before the old one goes
+                remove_entry(entry)
+            self.statusBar().showMessage(f"Restored unsaved edits to {design.name}.", 8000)
+        return restored
+
+    def ask_restore(self, entry: RecoveryEntry) -> bool:
+        """Ask whether to restore ``entry`` (True) or discard it (False)."""
+        source = (f"from {entry.original_path}" if entry.original_path is not None
+                  else "of a design never saved")
+        note = f"\n\n(The file it came from is not known: {entry.info_problem}.)" \
+            if entry.info_problem else ""
+        answer = QMessageBox.question(
+            self, "Restore unsaved edits?",
+            f"Penduline did not close normally. Unsaved edits {source}"
+            f"{f' ({entry.name})' if entry.name else ''}, autosaved {entry.saved_at}, "
+            f"can be restored.{note}\n\nRestore them? Discard deletes them.",
+            QMessageBox.StandardButton.Yes | QMessageBox.StandardButton.Discard,
+            QMessageBox.StandardButton.Yes)
+        return answer == QMessageBox.StandardButton.Yes
 
 
 def _stored_units() -> UnitSystem:

@@ -1,7 +1,9 @@
 """Swing preview: the pendulum drawn to scale (metres) and animated from the exact motion.
 
-The drawing is built once per result from ``Result.bodies`` (positions down from the pivot, in
-metres, at the site's temperature) into one group of items whose transform origin is the pivot.
+The drawing is made from ``Result.bodies`` (positions down from the pivot, in metres, at the
+site's temperature) as one group of items whose transform origin is the pivot. The items are
+made once for a set of parts and only moved and resized for each new result (a live drag);
+they are made again only when parts are added, removed, renamed or change kind or shape.
 Each animation frame only rotates that group (and the baseline ghost's group) to the angle of
 the exact motion ``Result.motion`` at the current time; nothing is rebuilt per frame.
 
@@ -27,6 +29,7 @@ from PySide6 import QtCore, QtGui, QtWidgets
 from core.analysis import LOAD_CAUTION, SPRING_CAUTION
 
 from . import theme
+from .plots import style_axis
 
 __all__ = ["SwingPreview", "SwingPreviewControls", "Outline", "outlines_from_bodies",
            "deepest_point_m", "SPEEDS"]
@@ -36,6 +39,9 @@ SPEEDS: tuple[float, ...] = (1.0, 0.5, 0.25, 0.1)
 
 SPEED_LABELS = {1.0: "1×", 0.5: "½×", 0.25: "¼×", 0.1: "1/10×"}
 FRAME_INTERVAL_MS = 16  # ≈ 60 frames per second
+CAUTION_MARGIN_PX = 24  # the caution wraps this much narrower than the widget
+CAUTION_MIN_WIDTH_PX = 160
+COMPACT_WIDTH_PX = 420  # narrower than this, the figures box is cut to two lines
 
 # Colours: the workbench theme's paper, ink, ghost and marker; the parts' own colours here.
 BACKGROUND = theme.PLOT_BACKGROUND
@@ -129,35 +135,64 @@ def _pen(colour: Any, width: float = 1.5, style: QtCore.Qt.PenStyle = QtCore.Qt.
 
 
 class _Drawing:
-    """The items of one pendulum drawing, children of one group rotated about the pivot."""
+    """The items of one pendulum drawing, children of one group rotated about the pivot.
+
+    The items are made once for a set of parts (their names, kinds and shapes: the drawing's
+    ``signature``); a new result with the same set only moves and resizes them
+    (:meth:`update`), which is what a live drag does.
+    """
 
     def __init__(self, outlines: tuple[Outline, ...], ghost: bool) -> None:
         self.group = pg.ItemGroup()
+        self.ghost = ghost
+        self.signature = _drawing_signature(outlines)
         self.items: dict[str, QtWidgets.QGraphicsItem] = {}
-        self.outlines = {o.name: o for o in outlines}
+        self._inner: dict[str, QtWidgets.QGraphicsItem] = {}  # bore of a sleeve, face of a lens
+        self.outlines: dict[str, Outline] = {}
         for o in sorted(outlines, key=_draw_order):
-            item = self._make_item(o, ghost)
+            item = self._make_item(o)
             item.setParentItem(self.group)
             self.items[o.name] = item
+        self.update(outlines)
 
-    def _make_item(self, o: Outline, ghost: bool) -> QtWidgets.QGraphicsItem:
+    def _make_item(self, o: Outline) -> QtWidgets.QGraphicsItem:
         if o.kind == "weight":
-            return _weight_item(o, ghost)
-        half = 0.5 * o.width_m
-        rect = QtCore.QRectF(-half, o.top_m, o.width_m, o.bottom_m - o.top_m)
+            return _weight_item(self.ghost)
         item: QtWidgets.QAbstractGraphicsShapeItem
-        item = QtWidgets.QGraphicsEllipseItem(rect) if o.is_round else QtWidgets.QGraphicsRectItem(
-            rect)
-        if ghost:
+        item = QtWidgets.QGraphicsEllipseItem() if o.is_round else QtWidgets.QGraphicsRectItem()
+        if self.ghost:
             item.setPen(_pen(GHOST_COLOUR, 1.5, QtCore.Qt.PenStyle.DashLine))
             item.setBrush(QtGui.QBrush(QtCore.Qt.BrushStyle.NoBrush))
             return item
         _style_part(item, o)
         if o.kind == "sleeve" and o.inner_width_m > 0:
-            _bore_item(o).setParentItem(item)
-        if o.kind == "bob" and o.shape == "lens":
-            _lens_face_item(o).setParentItem(item)
+            self._inner[o.name] = _bore_item()
+        elif o.kind == "bob" and o.shape == "lens":
+            self._inner[o.name] = _lens_face_item()
+        if o.name in self._inner:
+            self._inner[o.name].setParentItem(item)
         return item
+
+    def update(self, outlines: tuple[Outline, ...]) -> bool:
+        """Move and resize the items to ``outlines``; False (nothing done) when the set of
+        parts differs from the one the items were made for."""
+        if _drawing_signature(outlines) != self.signature:
+            return False
+        self.outlines = {o.name: o for o in outlines}
+        for o in outlines:
+            item = self.items[o.name]
+            if o.kind == "weight":
+                item.setPos(0.0, o.centre_m)
+                continue
+            half = 0.5 * o.width_m
+            item.setRect(QtCore.QRectF(-half, o.top_m, o.width_m,  # type: ignore[attr-defined]
+                                       o.bottom_m - o.top_m))
+            if not self.ghost and o.kind == "bob" and o.shape == "sphere":
+                item.setBrush(_bob_brush(o))  # type: ignore[attr-defined]
+            inner = self._inner.get(o.name)
+            if inner is not None:
+                inner.setRect(_inner_rect(o))  # type: ignore[attr-defined]
+        return True
 
     def set_angle(self, angle_rad: float) -> None:
         """Rotate the drawing about the pivot; positive angles move the bob to the right."""
@@ -166,6 +201,13 @@ class _Drawing:
     def angle_rad(self) -> float:
         """The angle the drawing shows, rad."""
         return -math.radians(self.group.rotation())
+
+
+def _drawing_signature(outlines: tuple[Outline, ...]) -> tuple[tuple[Any, ...], ...]:
+    """What decides which items a drawing is made of: each part's name, kind and shape, and
+    whether it has a bore (a sleeve) — not its size or position."""
+    return tuple((o.name, o.kind, o.shape, o.kind == "sleeve" and o.inner_width_m > 0)
+                 for o in sorted(outlines, key=_draw_order))
 
 
 def _draw_order(o: Outline) -> int:
@@ -195,31 +237,36 @@ def _bob_brush(o: Outline) -> QtGui.QBrush:
     return QtGui.QBrush(grad)
 
 
-def _bore_item(o: Outline) -> QtWidgets.QGraphicsRectItem:
-    """The tube's bore, drawn inside the sleeve."""
-    half = 0.5 * o.inner_width_m
-    bore = QtWidgets.QGraphicsRectItem(QtCore.QRectF(-half, o.top_m, o.inner_width_m,
-                                                     o.bottom_m - o.top_m))
+def _bore_item() -> QtWidgets.QGraphicsRectItem:
+    """The tube's bore, drawn inside the sleeve (placed by ``_inner_rect``)."""
+    bore = QtWidgets.QGraphicsRectItem()
     bore.setPen(_pen("#5e4525", 0.8, QtCore.Qt.PenStyle.DotLine))
     bore.setBrush(pg.mkBrush(BORE_COLOUR))
     return bore
 
 
-def _lens_face_item(o: Outline) -> QtWidgets.QGraphicsEllipseItem:
+def _lens_face_item() -> QtWidgets.QGraphicsEllipseItem:
     """An inner ring marking the lens's convex face (tells a lens from a flat disc)."""
-    r = 0.55 * o.width_m / 2.0
-    ring = QtWidgets.QGraphicsEllipseItem(QtCore.QRectF(-r, o.centre_m - r, 2 * r, 2 * r))
+    ring = QtWidgets.QGraphicsEllipseItem()
     ring.setPen(_pen(BOB_RIM["lens"], 1.0))
     ring.setBrush(pg.mkBrush("#e8eff4"))
     return ring
 
 
-def _weight_item(o: Outline, ghost: bool) -> QtWidgets.QGraphicsEllipseItem:
-    """A point weight: a marker of fixed screen size at its height on the axis."""
+def _inner_rect(o: Outline) -> QtCore.QRectF:
+    """Where the bore of a sleeve, or the face ring of a lens, is drawn, m."""
+    if o.kind == "sleeve":
+        half = 0.5 * o.inner_width_m
+        return QtCore.QRectF(-half, o.top_m, o.inner_width_m, o.bottom_m - o.top_m)
+    r = 0.55 * o.width_m / 2.0
+    return QtCore.QRectF(-r, o.centre_m - r, 2 * r, 2 * r)
+
+
+def _weight_item(ghost: bool) -> QtWidgets.QGraphicsEllipseItem:
+    """A point weight: a marker of fixed screen size, placed at its height on the axis."""
     size = 9.0
     item = QtWidgets.QGraphicsEllipseItem(QtCore.QRectF(-size / 2, -size / 2, size, size))
     item.setFlag(QtWidgets.QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations, True)
-    item.setPos(0.0, o.centre_m)
     item.setPen(_pen(GHOST_COLOUR if ghost else "#7a1f16", 1.2))
     item.setBrush(QtGui.QBrush(QtCore.Qt.BrushStyle.NoBrush) if ghost
                   else pg.mkBrush(WEIGHT_COLOUR))
@@ -292,13 +339,16 @@ class SwingPreview(pg.PlotWidget):
         self._time_s = 0.0
         self._speed = 1.0
         self._playing = False
-        self._static_items: list[QtWidgets.QGraphicsItem] = []
+        self._baseline: Any = None
+        self._legend_names: tuple[str, ...] = ()
+        self._shown_range: tuple[float, float, float, float] | None = None
         self._timer = QtCore.QTimer(self)
         self._timer.setTimerType(QtCore.Qt.TimerType.PreciseTimer)
         self._timer.setInterval(FRAME_INTERVAL_MS)
         self._timer.timeout.connect(self._on_frame)
         self._elapsed = QtCore.QElapsedTimer()
         self._setup_axes()
+        self._setup_envelope()
         self._setup_overlay()
         self._setup_clearance_line()
         self._setup_menu()
@@ -306,15 +356,13 @@ class SwingPreview(pg.PlotWidget):
     # ------------------------------------------------------------------ set-up
     def _setup_axes(self) -> None:
         item = self.getPlotItem()
-        item.setTitle(self.title, color=INK)
+        item.setTitle(self.title, color=INK, size="10pt")
         item.setLabel("left", "Below pivot", units="m", color=INK)
         item.setLabel("bottom", "Across the swing", units="m", color=INK)
         for name in ("left", "bottom"):
-            axis = item.getAxis(name)
-            axis.setPen(pg.mkPen(INK))
-            axis.setTextPen(pg.mkPen(INK))
-            axis.enableAutoSIPrefix(False)  # both axes stay in metres: the drawing is to scale
-        item.showGrid(x=True, y=True, alpha=0.15)
+            # Both axes stay in metres (no SI prefix): the drawing is to scale. Major ticks
+            # only and opaque grid lines: the fast way to draw a grid (see ``style_axis``).
+            style_axis(item.getAxis(name), color=INK)
         vb = item.getViewBox()
         vb.invertY(True)
         vb.setAspectLocked(True, ratio=1.0)
@@ -322,17 +370,36 @@ class SwingPreview(pg.PlotWidget):
         self._legend = item.addLegend(offset=(-10, 10), labelTextColor=INK,
                                       brush=pg.mkBrush(255, 255, 255, 210), pen=pg.mkPen("#bbbbbb"))
 
+    def _setup_envelope(self) -> None:
+        """The paths of the bob centre and of the lowest point, the rays to the bob centre's
+        extreme positions and the pivot: made once, moved by each result."""
+        vb = self.getPlotItem().getViewBox()
+        dashed = QtCore.Qt.PenStyle.DashLine
+        self._centre_arc = pg.PlotCurveItem(pen=pg.mkPen(CENTRE_PATH_COLOUR, width=2,
+                                                         style=dashed))
+        self._lowest_arc = pg.PlotCurveItem(pen=pg.mkPen(LOWEST_PATH_COLOUR, width=2,
+                                                         style=dashed))
+        ray_pen = pg.mkPen(CENTRE_PATH_COLOUR, width=1, style=QtCore.Qt.PenStyle.DotLine)
+        self._rays = (pg.PlotCurveItem(pen=ray_pen), pg.PlotCurveItem(pen=ray_pen))
+        for curve in (self._centre_arc, self._lowest_arc, *self._rays):
+            vb.addItem(curve, ignoreBounds=True)
+        self._pivot = _pivot_item()
+        vb.addItem(self._pivot, ignoreBounds=True)
+
     def _setup_overlay(self) -> None:
-        """Figures in a box fixed to the view's top-left corner; the load caution in a line of
-        its own under the plot, where it never hides the drawing."""
+        """Figures in a box fixed to the view's top-left corner; the load caution under the
+        plot, wrapped to the plot's width, where it never hides the drawing."""
         item = self.getPlotItem()
         self._info = pg.TextItem(anchor=(0, 0), color=INK, fill=pg.mkBrush(255, 255, 255, 215),
                                  border=pg.mkPen("#bbbbbb"))
         self._info.setParentItem(item.getViewBox())
         self._info.setPos(8, 8)
         self._info.setZValue(20)
+        self._info_html = ""
+        self._compact_shown = False
         self._caution = pg.LabelItem("", justify="left", color="#7a4b00", size="8pt")
         item.layout.addItem(self._caution, 5, 0, 1, 5)
+        self._wrap_caution()
 
     def _setup_clearance_line(self) -> None:
         self._line = pg.InfiniteLine(pos=1.0, angle=0, movable=True, pen=_pen(LINE_COLOUR, 2.0),
@@ -365,27 +432,33 @@ class SwingPreview(pg.PlotWidget):
 
     # ------------------------------------------------------------------ public API
     def show_result(self, result: Any, baseline: Any = None) -> None:
-        """Draw ``result`` (a ``core.Result``) to scale; ``baseline`` as a grey ghost."""
+        """Draw ``result`` (a ``core.Result``) to scale; ``baseline`` as a grey ghost.
+
+        The items are made once and moved to each new result; they are made again only when
+        the set of parts (names, kinds, shapes) changes.
+        """
         self._result = result
-        self._clear_drawing()
-        vb = self.getPlotItem().getViewBox()
         outlines = outlines_from_bodies(result.bodies)
         self._clock = _MotionClock(result)
         self._deepest_m = max(deepest_point_m(outlines, self._clock.amplitude_rad),
                               float(result.exhibit.lowest_point_m))
-        if baseline is not None:
-            self._ghost = _Drawing(outlines_from_bodies(baseline.bodies), ghost=True)
+        self._drawing = self._placed(self._drawing, outlines, ghost=False)
+        if baseline is None:
+            if self._ghost is not None:
+                self.getPlotItem().getViewBox().removeItem(self._ghost.group)
+            self._ghost = self._ghost_clock = None
+        elif baseline is not self._baseline or self._ghost is None:
+            self._ghost = self._placed(self._ghost, outlines_from_bodies(baseline.bodies),
+                                       ghost=True)
             self._ghost_clock = _MotionClock(baseline)
-            self._ghost.group.setZValue(-5)
-            vb.addItem(self._ghost.group, ignoreBounds=True)
-        self._drawing = _Drawing(outlines, ghost=False)
-        vb.addItem(self._drawing.group, ignoreBounds=True)
-        self._add_envelope(result, outlines)
-        self._add_static(_pivot_item())
+        self._baseline = baseline
+        self._update_envelope(result, outlines)
         self._update_info()
         self._fit_view()
         self._apply_time()
         self._on_line_moved()
+        if self.isVisible():  # the view's transform now, not at the next paint (see plots)
+            self.getPlotItem().getViewBox().prepareForPaint()
 
     def set_playing(self, playing: bool) -> None:
         """Start or stop the animation (the timer runs only while playing)."""
@@ -515,48 +588,44 @@ class SwingPreview(pg.PlotWidget):
         return float(p.x()), float(p.y())
 
     # ------------------------------------------------------------------ drawing
-    def _clear_drawing(self) -> None:
+    def _placed(self, drawing: _Drawing | None, outlines: tuple[Outline, ...],
+                ghost: bool) -> _Drawing:
+        """``drawing`` moved to ``outlines``, or a new drawing in its place when the set of
+        parts has changed."""
+        if drawing is not None and drawing.update(outlines):
+            return drawing
         vb = self.getPlotItem().getViewBox()
-        for drawing in (self._drawing, self._ghost):
-            if drawing is not None:
-                vb.removeItem(drawing.group)
-        for item in self._static_items:
-            if isinstance(item, pg.PlotDataItem):
-                self.getPlotItem().removeItem(item)
-            else:
-                vb.removeItem(item)
-        self._legend.clear()
-        self._static_items.clear()
-        self._drawing = self._ghost = None
-        self._clock = self._ghost_clock = None
+        if drawing is not None:
+            vb.removeItem(drawing.group)
+        new = _Drawing(outlines, ghost=ghost)
+        new.group.setZValue(-5 if ghost else 0)
+        vb.addItem(new.group, ignoreBounds=True)
+        return new
 
-    def _add_static(self, item: QtWidgets.QGraphicsItem) -> None:
-        self.getPlotItem().getViewBox().addItem(item, ignoreBounds=True)
-        self._static_items.append(item)
-
-    def _add_envelope(self, result: Any, outlines: tuple[Outline, ...]) -> None:
+    def _update_envelope(self, result: Any, outlines: tuple[Outline, ...]) -> None:
         """Arcs traced at ±θ₀ by the bob centre and by the deepest point; radial lines to the
         bob centre's extreme positions."""
         theta0 = math.radians(float(result.amplitude_deg))
         phi = np.linspace(-theta0, theta0, 181)
+        sin_phi, cos_phi = np.sin(phi), np.cos(phi)
         bob = next((o for o in outlines if o.kind == "bob"), None)
-        arcs = [(self._deepest_m, LOWEST_PATH_COLOUR, "Path of lowest point")]
-        if bob is not None:
-            arcs.insert(0, (bob.centre_m, CENTRE_PATH_COLOUR, "Path of bob centre"))
-        for radius, colour, name in arcs:
-            pen = pg.mkPen(colour, width=2, style=QtCore.Qt.PenStyle.DashLine)
-            curve = pg.PlotDataItem(radius * np.sin(phi), radius * np.cos(phi), name=name,
-                                    pen=pen)
-            self.getPlotItem().addItem(curve)
-            self._static_items.append(curve)
-        if bob is not None:
+        self._lowest_arc.setData(self._deepest_m * sin_phi, self._deepest_m * cos_phi)
+        if bob is None:
+            self._centre_arc.setData([], [])
+            for ray in self._rays:
+                ray.setData([], [])
+        else:
             r = bob.centre_m
-            for side in (-1.0, 1.0):
-                ray = pg.PlotCurveItem([0.0, side * r * math.sin(theta0)],
-                                       [0.0, r * math.cos(theta0)],
-                                       pen=pg.mkPen(CENTRE_PATH_COLOUR, width=1,
-                                                    style=QtCore.Qt.PenStyle.DotLine))
-                self._add_static(ray)
+            self._centre_arc.setData(r * sin_phi, r * cos_phi)
+            for side, ray in zip((-1.0, 1.0), self._rays):
+                ray.setData([0.0, side * r * math.sin(theta0)], [0.0, r * math.cos(theta0)])
+        names = (("Path of bob centre",) if bob is not None else ()) + ("Path of lowest point",)
+        if names != self._legend_names:
+            self._legend_names = names
+            self._legend.clear()
+            if bob is not None:
+                self._legend.addItem(self._centre_arc, names[0])
+            self._legend.addItem(self._lowest_arc, names[-1])
 
     def _fit_view(self) -> None:
         """Show the whole pendulum, its sweep and the clearance line, to scale."""
@@ -570,14 +639,33 @@ class SwingPreview(pg.PlotWidget):
             top = min(top, -self._deepest_m * math.sin(self._clock.amplitude_rad - math.pi / 2))
         bottom = max(self._deepest_m, self.clearance_line_m() or 0.0)
         span = max(bottom - top, 2 * reach, 0.05)
-        self.getPlotItem().getViewBox().setRange(
-            xRange=(-reach - 0.04 * span, reach + 0.04 * span),
-            yRange=(top - 0.06 * span, bottom + 0.05 * span), padding=0.0)
+        shown = (-reach - 0.04 * span, reach + 0.04 * span, top - 0.06 * span,
+                 bottom + 0.05 * span)
+        if shown == self._shown_range:
+            return
+        self._shown_range = shown
+        self.getPlotItem().getViewBox().setRange(xRange=shown[:2], yRange=shown[2:],
+                                                 padding=0.0)
+
+    @property
+    def compact(self) -> bool:
+        """True in a small pane: the figures box keeps two short lines and the legend of the
+        paths is hidden, so neither covers the drawing."""
+        return self.width() < COMPACT_WIDTH_PX
 
     def _update_info(self) -> None:
         if self._result is None:
             return
         r, e = self._result, self._result.exhibit
+        self._legend.setVisible(not self.compact)
+        if self.compact:
+            lines = [f"±{r.amplitude_deg:.3g}° · period {r.period_s:.4f} s",
+                     f"Peak pivot load {r.max_pivot_load_n:.4g} N (ideal)"]
+            if self._ghost is not None:
+                lines.append("Grey: pinned baseline")
+            self._set_info(f"<div style='font-size:8pt'>{'<br>'.join(lines)}</div>")
+            self._set_caution(r)
+            return
         lines = [f"<b>{_escape(r.design.name)}</b>",
                  f"Semi-arc ±{r.amplitude_deg:.3g}° · period {r.period_s:.4f} s",
                  f"Deepest point {self._deepest_m:.3f} m below pivot"]
@@ -588,9 +676,19 @@ class SwingPreview(pg.PlotWidget):
         state = "playing" if self._playing else "paused"
         lines.append(f"Animation {state} at {SPEED_LABELS[self._speed]}"
                      + (" · grey: pinned baseline" if self._ghost is not None else ""))
-        self._info.setHtml(f"<div style='font-size:9pt'>{'<br>'.join(lines)}</div>")
+        self._set_info(f"<div style='font-size:9pt'>{'<br>'.join(lines)}</div>")
+        self._set_caution(r)
+
+    def _set_info(self, html: str) -> None:
+        if html != self._info_html:
+            self._info_html = html
+            self._info.setHtml(html)
+
+    def _set_caution(self, r: Any) -> None:
         cautions = [LOAD_CAUTION] + [c for c in r.cautions if c == SPRING_CAUTION]
-        self._caution.setText("<b>Caution.</b> " + "<br>".join(_caution_html(c) for c in cautions))
+        text = "<b>Caution.</b> " + "<br>".join(_escape(c) for c in cautions)
+        if text != self._caution.text:
+            self._caution.setText(text)
 
     # ------------------------------------------------------------------ animation
     def _on_frame(self) -> None:
@@ -607,6 +705,28 @@ class SwingPreview(pg.PlotWidget):
             self._drawing.set_angle(self._clock.angle_at(self._time_s))
         if self._ghost is not None and self._ghost_clock is not None:
             self._ghost.set_angle(self._ghost_clock.angle_at(self._time_s))
+
+    def resizeEvent(self, event: QtGui.QResizeEvent) -> None:  # noqa: N802 (Qt name)
+        """Wrap the caution to the new width before the plot's layout is redone."""
+        # pyqtgraph resizes while the base is being built, and again while closing (its items
+        # are deleted by then)
+        if "_caution" in self.__dict__ and not getattr(self, "closed", False):
+            compact = self.compact
+            self._wrap_caution()
+            super().resizeEvent(event)
+            if compact != self._compact_shown:
+                self._compact_shown = compact
+                self._update_info()
+            return
+        super().resizeEvent(event)
+
+    def _wrap_caution(self) -> None:
+        """Let the caution wrap within the widget's width (it sets the plot's least width
+        otherwise, and the preview could not share a small pane)."""
+        width = float(max(self.width() - CAUTION_MARGIN_PX, CAUTION_MIN_WIDTH_PX))
+        if abs(self._caution.item.textWidth() - width) > 0.5:
+            self._caution.item.setTextWidth(width)
+            self._caution.updateMin()
 
     def hideEvent(self, event: QtGui.QHideEvent) -> None:  # noqa: N802 (Qt name)
         """Stop the timer while hidden; it resumes when shown if still playing."""
@@ -650,11 +770,6 @@ class SwingPreview(pg.PlotWidget):
 
 def _escape(text: str) -> str:
     return text.replace("&", "&amp;").replace("<", "&lt;").replace(">", "&gt;")
-
-
-def _caution_html(text: str) -> str:
-    """The caution with a line break after each sentence, so it stays narrow."""
-    return _escape(text).replace(". ", ".<br>")
 
 
 class SwingPreviewControls(QtWidgets.QWidget):

@@ -1,11 +1,15 @@
 """How the readout's figures are labelled and formatted, shared by the window, the report
-table and the PDF: (key, label, unit, format) rows over ``Result.report_dict()``."""
+table and the PDF: (key, label, unit, format) rows over ``Result.report_dict()``.
+
+Labels are kept short enough for the readout's narrow label column; :data:`DESCRIPTIONS`
+says in full what each figure is (the window shows it, with the JSON key, as a tooltip).
+"""
 
 from __future__ import annotations
 
 from typing import Any
 
-__all__ = ["SECTIONS", "format_value", "rows"]
+__all__ = ["SECTIONS", "DESCRIPTIONS", "describe", "format_value", "rows"]
 
 Row = tuple[str, str, str, str]
 
@@ -34,13 +38,13 @@ SECTIONS: tuple[tuple[str, tuple[Row, ...]], ...] = (
         ("mass_kg", "Mass", "kg", "{:.4f}"),
         ("centre_of_mass_m", "Centre of mass", "m", "{:.6f}"),
         ("inertia_pivot_kg_m2", "Inertia about pivot", "kg·m²", "{:.6f}"),
-        ("centre_of_oscillation_m", "Centre of oscillation I/Mh", "m", "{:.6f}"),
+        ("centre_of_oscillation_m", "Centre of oscillation", "m", "{:.6f}"),
         ("g_m_s2", "Local gravity", "m/s²", "{:.6f}"),
         ("air_density_kg_m3", "Air density", "kg/m³", "{:.4f}"),
     )),
     ("Swing and loads", (
         ("peak_speed_m_s", "Bob peak speed", "m/s", "{:.4f}"),
-        ("sweep_width_m", "Sweep width (bob centre)", "m", "{:.4f}"),
+        ("sweep_width_m", "Bob sweep width", "m", "{:.4f}"),
         ("static_load_n", "Static weight", "N", "{:.2f}"),
         ("max_pivot_load_n", "Peak pivot load", "N", "{:.2f}"),
         ("pivot_load_ratio", "Peak / static load", "", "{:.5f}"),
@@ -51,6 +55,59 @@ SECTIONS: tuple[tuple[str, tuple[Row, ...]], ...] = (
         ("foucault_turn_h", "Foucault full turn", "h", "{:.3f}"),
     )),
 )
+
+
+DESCRIPTIONS: dict[str, str] = {
+    "period_s": "Exact period, one full swing there and back, at the working semi-arc",
+    "period_small_s": "Period the same pendulum would have swinging through very small arcs",
+    "target_period_s": "The period the clock should keep (the target period, or 7200 s divided "
+                       "by the target beats per hour)",
+    "rate_s_per_day": "Seconds a day gained (+) or lost (−) against the target period",
+    "beats_per_hour": "Beats an hour at the exact period (two beats per period)",
+    "circular_error_s_per_day": "Seconds a day lost to the size of the swing, compared with "
+                                "very small arcs",
+    "amplitude_deg": "Working semi-arc: how far the pendulum swings each side of vertical",
+    "bob_sensitivity_s_per_day_per_mm": "Rate change when the bob is lowered by 1 mm",
+    "rating_nut_s_per_day_per_turn": "Rate change for one turn of the rating nut raising "
+                                     "the bob",
+    "trim_s_per_day_per_g": "Rate change for 1 g of trim weight added at the trim tray "
+                            "height",
+    "trim_height_m": "Height below the pivot at which the trim-weight figure is quoted",
+    "trim_null_height_m": "Height below the pivot at which added trim weight leaves the rate "
+                          "unchanged",
+    "temperature_coefficient_s_per_day_per_k": "Rate change for each kelvin the site warms",
+    "pressure_coefficient_s_per_day_per_hpa": "Rate change for each hPa the air pressure "
+                                              "rises",
+    "arc_s_per_day_per_0_1_deg": "Rate change when the semi-arc grows by 0.1°",
+    "elevation_s_per_day_per_100_m": "Rate change if the site were 100 m higher",
+    "mass_kg": "Total mass of the pendulum",
+    "centre_of_mass_m": "Centre of mass, below the pivot",
+    "inertia_pivot_kg_m2": "Moment of inertia about the pivot axis",
+    "centre_of_oscillation_m": "Centre of oscillation below the pivot, I/(M·h): the length "
+                               "of the simple pendulum with the same small-arc period",
+    "g_m_s2": "Gravity at the site (from latitude and elevation, or as given)",
+    "air_density_kg_m3": "Density of the air at the site's temperature and pressure",
+    "peak_speed_m_s": "Speed of the bob centre as it passes the lowest point",
+    "sweep_width_m": "Width swept by the bob centre, from one end of the swing to the other",
+    "static_load_n": "Weight of the pendulum hanging at rest",
+    "max_pivot_load_n": "Largest load on the pivot during the swing: ideal, with no safety "
+                        "factor",
+    "pivot_load_ratio": "Peak pivot load divided by the static weight",
+    "energy_j": "Energy of the swing",
+    "drive_power_w": "Power the drive must supply to keep the swing up against its damping",
+    "cycles_to_half_amplitude": "Full swings for the arc to fall to half, with no drive",
+    "time_to_half_amplitude_s": "Time for the arc to fall to half, with no drive",
+    "foucault_turn_h": "Hours for the plane of swing to turn a full circle at the site's "
+                       "latitude",
+}
+"""What each figure is, in full, by its JSON key."""
+
+
+def describe(key: str) -> str:
+    """A tooltip for figure ``key``: its full description and its JSON key."""
+    label = next((label for _s, items in SECTIONS for k, label, _u, _f in items if k == key),
+                 key)
+    return f"{DESCRIPTIONS.get(key, label)}.\nJSON key: {key}"
 
 
 def format_value(value: Any, fmt: str) -> str:

@@ -15,7 +15,7 @@ from PySide6.QtWidgets import (QFrame, QHBoxLayout, QHeaderView, QLabel, QScroll
                                QSplitter, QTreeWidget, QTreeWidgetItem, QVBoxLayout, QWidget)
 
 from .number_field import NumberField
-from .readout_format import SECTIONS, format_value
+from .readout_format import SECTIONS, describe, format_value
 from .units import UnitSystem, field_unit, readout_unit
 
 __all__ = ["ReadoutPanel"]
@@ -23,6 +23,7 @@ __all__ = ["ReadoutPanel"]
 BUDGET_SECTION = "Rate budget"
 _COLUMNS = ("Figure", "Value", "Unit", "Δ baseline")
 _RIGHT = Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter
+LABEL_PADDING_PX = 14  # item padding and text margins around a label, px
 
 
 def _signed(fmt: str) -> str:
@@ -51,6 +52,7 @@ class ReadoutPanel(QWidget):
         self._items: dict[str, tuple[QTreeWidgetItem, str, str]] = {}
         self._budget_items: list[QTreeWidgetItem] = []
         self._notes_shown: tuple[Any, ...] = ()
+        self._own_min_width: int | None = None
         layout = QVBoxLayout(self)
         layout.setContentsMargins(6, 6, 8, 8)
         layout.setSpacing(6)
@@ -111,7 +113,7 @@ class ReadoutPanel(QWidget):
         # Fixed widths: sizing columns to their contents would re-measure every row on every
         # update of a live drag.
         metrics = tree.fontMetrics()
-        for column, sample in ((1, "−00.000000000"), (2, "s/day/inHg"),
+        for column, sample in ((1, "−0.000000000"), (2, "s/day/inHg"),
                                (3, "+0.000000000")):
             header.setSectionResizeMode(column, QHeaderView.ResizeMode.Interactive)
             header.resizeSection(column, metrics.horizontalAdvance(sample) + 14)
@@ -120,17 +122,44 @@ class ReadoutPanel(QWidget):
         bold = QFont(tree.font())
         bold.setBold(True)
         section_brush = QBrush(QColor("#e9e5dc"))
+        labels = []
         for section, rows in SECTIONS:
             head = self._section_item(tree, section, bold, section_brush)
+            labels.append(section)
             for key, label, unit, fmt in rows:
                 item = QTreeWidgetItem(head, [label, "", unit, ""])
                 item.setTextAlignment(1, _RIGHT)
                 item.setTextAlignment(3, _RIGHT)
+                item.setToolTip(0, describe(key))
                 self._items[key] = (item, unit, fmt)
+                labels.append(label)
         self._budget_head = self._section_item(tree, BUDGET_SECTION, bold, section_brush)
         tree.expandAll()
         tree.setColumnHidden(3, True)
+        # The label column fits the longest label, measured once here (the labels never
+        # change; measuring on every update was what made live drags slow): the tree may not
+        # be squeezed narrower than that plus the other columns on view.
+        self._label_width = (max(metrics.horizontalAdvance(text) for text in labels)
+                             + LABEL_PADDING_PX)
+        self._tree_extra = tree.verticalScrollBar().sizeHint().width() + 2 * tree.frameWidth()
+        tree.setMinimumWidth(self._tree_width(tree, delta=False))
         return tree
+
+    def _tree_width(self, tree: QTreeWidget, delta: bool) -> int:
+        """Least tree width that shows every label whole, px."""
+        header = tree.header()
+        columns = (1, 2, 3) if delta else (1, 2)
+        return self._label_width + sum(header.sectionSize(c) for c in columns) + self._tree_extra
+
+    def _show_delta_column(self, show: bool) -> None:
+        """Show or hide the Δ baseline column; the panel widens to keep the labels whole."""
+        self.tree.setColumnHidden(3, not show)
+        if self._own_min_width is None:
+            self._own_min_width = self.minimumWidth()  # what the window asked for
+        self.tree.setMinimumWidth(self._tree_width(self.tree, delta=show))
+        margins = self.layout().contentsMargins()
+        needed = self.tree.minimumWidth() + margins.left() + margins.right()
+        self.setMinimumWidth(max(self._own_min_width, needed))
 
     @staticmethod
     def _section_item(tree: QTreeWidget, title: str, font: QFont,
@@ -190,7 +219,8 @@ class ReadoutPanel(QWidget):
         self._result, self._baseline = result, baseline
         report = result.report_dict()
         base = baseline.report_dict() if baseline is not None else None
-        self.tree.setColumnHidden(3, base is None)
+        if self._own_min_width is None or self.tree.isColumnHidden(3) != (base is None):
+            self._show_delta_column(base is not None)
         for key, (item, unit, fmt) in self._items.items():
             shown = readout_unit(unit, self._system)
             _set_text(item, 1, format_value(_convert(report.get(key), shown), fmt))
@@ -204,30 +234,41 @@ class ReadoutPanel(QWidget):
         self.show_compute_problem("")
 
     def _show_budget(self, result: Any) -> None:
-        lines = list(result.budget.lines)
         rows: list[tuple[str, str, str]] = []
-        for line in lines:
+        tips: list[str] = []
+        for line in result.budget.lines:
             unit = readout_unit(line.unit, self._system)
-            rows.append((f"{line.cause} {unit.convert(line.low):.4g}–"
-                         f"{unit.convert(line.high):.4g} {unit.text}",
+            low, high = unit.convert(line.low), unit.convert(line.high)
+            gap = "" if unit.text == "°" else " "
+            rows.append((f"{line.cause} {_range_text(low, high)}{gap}{unit.text}",
                          f"{line.spread_s_per_day:+.2f}", "s/day"))
-        rows.append(("Worst case (sum of sizes)", f"{result.budget.worst_case_s_per_day:.2f}",
+            tips.append(f"{line.cause} from {low:.6g} to {high:.6g} {unit.text}: rate "
+                        f"{line.rate_at_low_s_per_day:+.2f} s/day at the low end, "
+                        f"{line.rate_at_high_s_per_day:+.2f} s/day at the high end")
+        rows.append(("Worst case (sum)", f"{result.budget.worst_case_s_per_day:.2f}",
                      "s/day"))
+        tips.append("Sum of the spreads above: every cause pushing the same way at once")
         rows.append(("Root sum square", f"{result.budget.root_sum_square_s_per_day:.2f}",
                      "s/day"))
+        tips.append("Square root of the sum of the squared spreads: the causes taken as "
+                    "independent of each other")
         while len(self._budget_items) < len(rows):
             item = QTreeWidgetItem(self._budget_head, ["", "", "", ""])
             item.setTextAlignment(1, _RIGHT)
             self._budget_items.append(item)
         for i, item in enumerate(self._budget_items):
-            item.setHidden(i >= len(rows))
-            if i < len(rows):
-                for column, text in enumerate(rows[i]):
-                    _set_text(item, column, text)
-        for item, line in zip(self._budget_items, lines):
-            item.setToolTip(0, f"Rate {line.rate_at_low_s_per_day:+.2f} s/day at the low end, "
-                               f"{line.rate_at_high_s_per_day:+.2f} s/day at the high end")
-        self._budget_head.setExpanded(True)
+            hidden = i >= len(rows)
+            if item.isHidden() != hidden:  # each setHidden lays the whole tree out again
+                item.setHidden(hidden)
+            if hidden:
+                continue
+            for column, text in enumerate(rows[i]):
+                _set_text(item, column, text)
+            if _TIPS.get(id(item)) != tips[i]:
+                _TIPS[id(item)] = tips[i]
+                item.setToolTip(0, tips[i])
+        if not self._budget_head.isExpanded():
+            self._budget_head.setExpanded(True)
 
     def _show_notes(self, result: Any) -> None:
         if (result.warnings, result.cautions) == self._notes_shown:
@@ -259,6 +300,7 @@ class ReadoutPanel(QWidget):
 
 
 _SHOWN: dict[tuple[int, int], str] = {}
+_TIPS: dict[int, str] = {}
 
 
 def _set_text(item: QTreeWidgetItem, column: int, text: str) -> None:
@@ -268,6 +310,16 @@ def _set_text(item: QTreeWidgetItem, column: int, text: str) -> None:
     if _SHOWN.get(key) != text:
         _SHOWN[key] = text
         item.setText(column, text)
+
+
+def _range_text(low: float, high: float) -> str:
+    """A budget range shown briefly: "±5" when it is symmetric about the site's value,
+    "0–30" otherwise (the exact ends are in the row's tooltip)."""
+    half = 0.5 * (high - low)
+    middle = 0.5 * (high + low)
+    if half > 0 and abs(middle) > 2 * half:  # a range around a nominal value
+        return f"±{half:.3g}"
+    return f"{low:.4g}–{high:.4g}"
 
 
 def _convert(value: Any, unit: Any) -> Any:

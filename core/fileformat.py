@@ -12,6 +12,7 @@ import json
 import math
 import os
 import re
+import stat
 import tempfile
 from pathlib import Path
 from typing import Any, Callable
@@ -52,7 +53,7 @@ RANGES: dict[str, tuple[float, float, bool, bool]] = {
     "mass_kg": (1e-6, 1.0e6, False, False),
     "at_m": (-1000.0, 1000.0, False, False),
     "centre_m": (-1000.0, 1000.0, False, False),
-    "amplitude_deg": (0.0, 179.9, True, False),
+    "amplitude_deg": (1e-6, 179.9, False, False),
     "quality_factor": (1.0, 1.0e9, False, False),
     "period_s": (0.0, 1.0e4, True, False),
     "beats_per_hour": (0.0, 1.0e7, True, False),
@@ -83,7 +84,8 @@ class _Reader:
         self.used: set[str] = set()
 
     def at(self, key: str) -> str:
-        return f"{self.path}.{key}" if self.path else key
+        shown = key if key.strip() else f"{key!r} (a key with no name)"
+        return f"{self.path}.{shown}" if self.path else shown
 
     def has(self, key: str) -> bool:
         return key in self.obj
@@ -115,6 +117,11 @@ class _Reader:
             raise DesignError(self.at(key), f"must be text, not {_kind(value)}")
         if len(value) > 200:
             raise DesignError(self.at(key), "is longer than 200 characters")
+        try:
+            value.encode("utf-8")
+        except UnicodeEncodeError:
+            raise DesignError(self.at(key), "contains a character that is not valid text "
+                                            "(an unpaired surrogate)") from None
         return value
 
     def choice(self, key: str, options: tuple[str, ...], required: bool = True,
@@ -454,10 +461,15 @@ def _loads_json(text: str | bytes) -> Any:
         if len(text) > MAX_FILE_BYTES:
             raise DesignError("file", f"is {len(text)} bytes; a design file is at most "
                                       f"{MAX_FILE_BYTES} bytes")
+        wide = text[:2] in (b"\xff\xfe", b"\xfe\xff") or b"\x00" in text[:200]
+        hint = "; it looks like UTF-16 or UTF-32: save it as UTF-8" if wide else ""
         try:
-            text = text.decode("utf-8-sig")
+            decoded = text.decode("utf-8-sig")
         except UnicodeDecodeError as exc:
-            raise DesignError("file", f"is not UTF-8 text (byte {exc.start})") from None
+            raise DesignError("file", f"is not UTF-8 text (byte {exc.start}){hint}") from None
+        if "\x00" in decoded:
+            raise DesignError("file", f"is not UTF-8 text (byte {text.index(0)}){hint}")
+        text = decoded
     if len(text) > MAX_FILE_BYTES:
         raise DesignError("file", f"is longer than {MAX_FILE_BYTES} characters")
     if not text.strip():
@@ -499,7 +511,12 @@ def read_design_dict(path: str | os.PathLike[str]) -> Any:
 def _read_bytes(path: str | os.PathLike[str]) -> bytes:
     p = Path(path)
     try:
-        size = p.stat().st_size
+        info = p.stat()
+        if stat.S_ISDIR(info.st_mode):
+            raise DesignError("file", f"{p} is a folder, not a design file")
+        if not stat.S_ISREG(info.st_mode):
+            raise DesignError("file", f"{p} is not a regular file (a pipe or a device)")
+        size = info.st_size
         if size > MAX_FILE_BYTES:
             raise DesignError("file", f"{p.name} is {size} bytes; a design file is at most "
                                       f"{MAX_FILE_BYTES} bytes")

@@ -7,6 +7,7 @@ and catches exceptions that reach ``sys.excepthook`` outside pytest-qt's capture
 
 from __future__ import annotations
 
+import os
 import shutil
 import sys
 from pathlib import Path
@@ -34,6 +35,21 @@ def private_settings(tmp_path_factory: pytest.TempPathFactory) -> Path:
     QSettings.setPath(QSettings.Format.IniFormat, QSettings.Scope.UserScope, str(folder))
     QSettings.setDefaultFormat(QSettings.Format.IniFormat)
     return folder
+
+
+@pytest.fixture(scope="session", autouse=True)
+def private_data_folder(tmp_path_factory: pytest.TempPathFactory) -> Iterator[Path]:
+    """Point the application's data folder (autosaves, recovery) at a temporary folder."""
+    from app.recovery import DATA_DIR_ENV
+
+    folder = tmp_path_factory.mktemp("data")
+    previous = os.environ.get(DATA_DIR_ENV)
+    os.environ[DATA_DIR_ENV] = str(folder)
+    yield folder
+    if previous is None:
+        os.environ.pop(DATA_DIR_ENV, None)
+    else:
+        os.environ[DATA_DIR_ENV] = previous
 
 
 @pytest.fixture(autouse=True)

@@ -11,14 +11,15 @@ os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
 
 import numpy as np
 import pytest
+from PySide6 import QtCore
 
 from core import analyse, design_from_dict, load_design, with_value
 from core.analysis import LOAD_CAUTION
 from core.fileformat import design_to_dict
 
 from app import theme
-from app.preview import (SPEEDS, SwingPreview, SwingPreviewControls, deepest_point_m,
-                         outlines_from_bodies)
+from app.preview import (CAUTION_MARGIN_PX, SPEEDS, SwingPreview, SwingPreviewControls,
+                         deepest_point_m, outlines_from_bodies)
 
 EXAMPLES = Path(__file__).resolve().parents[2] / "resources" / "examples"
 
@@ -170,6 +171,74 @@ class TestPose:
         assert "baseline" in preview.info_text()
         preview.show_result(regulator)
         assert not preview.shows_baseline
+
+
+class TestReuse:
+    """A new result with the same parts moves the items made for the last one; only a new
+    set of parts makes new ones."""
+
+    @staticmethod
+    def _part_items(preview):  # type: ignore[no-untyped-def]
+        return {name: id(item) for name, item in preview._drawing.items.items()}
+
+    def test_a_geometry_change_moves_the_same_items(self, preview, regulator):
+        preview.show_result(regulator)
+        before = self._part_items(preview)
+        scene_before = set(map(id, preview.scene().items()))
+        longer = analyse(with_value(regulator.design, "parts[0].length_m", 1.2))
+        preview.show_result(longer)
+        assert self._part_items(preview) == before
+        assert set(map(id, preview.scene().items())) == scene_before
+        ext = preview.drawn_extents()
+        for body in longer.bodies:  # drawn where the new result puts them
+            assert ext[body.name] == pytest.approx((body.top_m, body.bottom_m, body.width_m),
+                                                   abs=1e-12)
+        assert preview.deepest_point_m() >= longer.exhibit.lowest_point_m
+
+    def test_a_new_shape_or_part_makes_new_items(self, preview):
+        disc = analyse(design_from_dict(_bob_design("disc", thickness_m=0.03)))
+        preview.show_result(disc)
+        before = self._part_items(preview)
+        sphere = analyse(design_from_dict(_bob_design("sphere")))
+        preview.show_result(sphere)
+        assert preview.drawn_shape("bob") == "circle"
+        assert self._part_items(preview)["bob"] != before["bob"]
+        d = _bob_design("cylinder", height_m=0.15)
+        d["parts"].append({"kind": "weight", "name": "trim", "mass_kg": 0.01, "at_m": 0.4,
+                           "on": "rod"})
+        preview.show_result(analyse(design_from_dict(d)))
+        assert set(preview.drawn_extents()) == {"rod", "bob", "trim"}
+        assert preview.drawn_shape("bob") == "rectangle"
+        assert preview.drawn_extents()["trim"] == pytest.approx((0.4, 0.4, 0.0), abs=1e-12)
+
+    def test_the_ghost_follows_its_own_parts(self, preview, regulator):
+        longer = analyse(with_value(regulator.design, "parts[0].length_m", 1.2))
+        preview.show_result(regulator, longer)
+        ghost_items = {name: id(item) for name, item in preview._ghost.items.items()}
+        rod = preview._ghost.items["rod"].rect()
+        assert rod.bottom() == pytest.approx(
+            next(b.bottom_m for b in longer.bodies if b.name == "rod"), abs=1e-12)
+        preview.show_result(analyse(with_value(regulator.design, "parts[0].length_m", 1.15)),
+                            longer)
+        assert {n: id(i) for n, i in preview._ghost.items.items()} == ghost_items
+
+
+class TestFitsASmallPane:
+    def test_the_caution_wraps_to_the_width(self, qtbot, atrium):
+        # A quarter of the centre area at 1280×800 is about 310 × 300 px.
+        view = SwingPreview()
+        qtbot.addWidget(view)
+        view.setAttribute(QtCore.Qt.WidgetAttribute.WA_DontShowOnScreen, True)
+        view.resize(310, 300)
+        view.show()
+        view.show_result(atrium)
+        qtbot.waitExposed(view)
+        caution = view._caution
+        assert caution.item.textWidth() == 310 - CAUTION_MARGIN_PX
+        assert caution.item.boundingRect().width() <= 310 - CAUTION_MARGIN_PX + 1
+        assert view.getPlotItem().sceneBoundingRect().width() <= 310
+        assert view.getPlotItem().getViewBox().sceneBoundingRect().height() > 80
+        assert LOAD_CAUTION in view.caution_text()
 
 
 class TestAnimation:

@@ -51,9 +51,10 @@ BROKEN_BYTES: dict[str, tuple[bytes, str, str]] = {
     "JSON cut after the last brace": (EXAMPLE_TEXT.rstrip()[:-1].encode(), "file",
                                       "is not valid JSON"),
     "binary garbage": (_garbage(), "file", "is not UTF-8 text (byte 0)"),
-    "NUL bytes": (b"\x00" * 512, "file", "is not valid JSON"),
+    "NUL bytes": (b"\x00" * 512, "file", "is not UTF-8 text (byte 0)"),
     "UTF-16 with BOM": (EXAMPLE_TEXT.encode("utf-16"), "file", "is not UTF-8 text (byte 0)"),
-    "UTF-16-LE without BOM": (EXAMPLE_TEXT.encode("utf-16-le"), "file", "is not valid JSON"),
+    "UTF-16-LE without BOM": (EXAMPLE_TEXT.encode("utf-16-le"), "file",
+                              "is not UTF-8 text (byte 1); it looks like UTF-16"),
     "UTF-32": (EXAMPLE_TEXT.encode("utf-32"), "file", "is not UTF-8 text (byte 0)"),
     "Latin-1": (EXAMPLE_TEXT.replace("Workshop regulator", "Werkstätte").encode("latin-1"),
                 "file", "is not UTF-8 text (byte "),
@@ -323,10 +324,10 @@ class TestSaveFaults:
             self, saved: Path, monkeypatch: pytest.MonkeyPatch, name: str) -> None:
         before = saved.read_bytes()
         inject, words = SAVE_FAULTS[name]
-        inject(monkeypatch)
-        with pytest.raises(DesignError) as info:
-            save_design(_edited(), saved)
-        monkeypatch.undo()
+        with monkeypatch.context() as fault:
+            inject(fault)
+            with pytest.raises(DesignError) as info:
+                save_design(_edited(), saved)
         assert info.value.field == "file"
         assert info.value.reason == f"could not save {saved}: {words}"
         assert saved.read_bytes() == before
@@ -351,15 +352,13 @@ class TestSaveFaults:
         assert (target / "keep.txt").read_text(encoding="utf-8") == "keep"
         assert sorted(p.name for p in tmp_path.iterdir()) == [target.name]
 
-    def test_text_that_cannot_be_encoded_leaves_the_old_file(self, saved: Path) -> None:
-        """A name holding a lone surrogate (``\\ud800`` is valid JSON) cannot be written as
-        UTF-8: refused with field 'file', the old file untouched, nothing left behind."""
+    def test_text_that_cannot_be_encoded_is_refused_on_reading(self, saved: Path) -> None:
+        """A name holding a lone surrogate (``\\ud800`` is valid JSON) could never be written
+        back as UTF-8, so reading refuses it, naming the field; the saved file is untouched."""
         before = saved.read_bytes()
-        odd = loads_design(EXAMPLE_TEXT.replace('"Workshop regulator"', '"odd \\ud800 name"'))
-        assert odd.name == "odd \ud800 name"
         with pytest.raises(DesignError) as info:
-            save_design(odd, saved)
-        assert info.value.field == "file" and "UnicodeEncodeError" in info.value.reason
+            loads_design(EXAMPLE_TEXT.replace('"Workshop regulator"', '"odd \\ud800 name"'))
+        assert info.value.field == "name" and "unpaired surrogate" in info.value.reason
         assert saved.read_bytes() == before
         assert sorted(p.name for p in saved.parent.iterdir()) == [saved.name]
 
