@@ -14,6 +14,7 @@ import re
 from typing import Any
 
 from core import Design, DesignError, design_from_dict, design_to_dict
+from core.design import beats_per_hour
 
 __all__ = ["PART_KINDS", "set_value", "add_part", "remove_part", "duplicate_part",
            "rename_part", "set_bob_shape", "set_bob_mount", "set_suspension_kind",
@@ -198,7 +199,7 @@ def set_target_kind(design: Design, kind: str) -> Design:
     if kind == "period":
         d["target"] = {"period_s": period}
     elif kind == "beats_per_hour":
-        d["target"] = {"beats_per_hour": 7200.0 / period}
+        d["target"] = {"beats_per_hour": beats_per_hour(period)}
     elif kind == "none":
         d["target"] = {"period_s": None}
     else:

@@ -13,7 +13,7 @@ from typing import Any
 import numpy as np
 from numpy.typing import NDArray
 
-from .design import Bob, ClampMount, Design, Rod
+from .design import Bob, ClampMount, Design, Rod, beats_per_hour
 from .errors import DesignError, guarded
 from .exhibit import ExhibitFigures, exhibit_figures
 from .fileformat import design_from_dict, design_to_dict
@@ -238,7 +238,7 @@ def _analyse(design: Design, trim_height_m: float | None, ranges: BudgetRanges) 
         g_m_s2=state.g_m_s2,
         period_small_s=state.period_small_s,
         period_s=state.period_s,
-        beats_per_hour=7200.0 / state.period_s,
+        beats_per_hour=beats_per_hour(state.period_s),
         circular_error_s_per_day=SECONDS_PER_DAY * (1.0 - state.period_small_s / state.period_s),
         rate_s_per_day=state.rate_s_per_day,
         temperature_coefficient_s_per_day_per_k=sens.temperature_s_per_day_per_k,

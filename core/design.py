@@ -13,10 +13,21 @@ from typing import Literal, Union
 
 __all__ = [
     "Site", "Suspension", "Rod", "Sleeve", "ClampMount", "SleeveMount", "Bob", "Weight",
-    "Swing", "Target", "RatingNut", "Design", "Part", "BOB_SHAPES",
+    "Swing", "Target", "RatingNut", "Design", "Part", "BOB_SHAPES", "beats_per_hour",
+    "period_from_beats_per_hour",
 ]
 
 BOB_SHAPES = ("disc", "lens", "cylinder", "sphere")
+
+
+def beats_per_hour(period_s: float) -> float:
+    """Beats per hour of a full period (s): two beats a period, 7200 / T."""
+    return 7200.0 / period_s
+
+
+def period_from_beats_per_hour(beats: float) -> float:
+    """Full period, s, of a pendulum beating ``beats`` times an hour."""
+    return 7200.0 / beats
 
 
 @dataclass(frozen=True)
@@ -141,7 +152,7 @@ class Target:
         if self.period_s is not None:
             return self.period_s
         if self.beats_per_hour is not None:
-            return 7200.0 / self.beats_per_hour
+            return period_from_beats_per_hour(self.beats_per_hour)
         return None
 
 
