@@ -10,18 +10,23 @@ arrays come from the result and are only converted from radians to degrees.
 A plot's own view choices (which quantity, which range) sit in a strip of small controls laid
 over its title row; the strip is a widget, not part of the drawing, so exports show the title.
 
+Each plot frames every new result (until the person pans or zooms). While results stream in
+(a live drag) the axes hold still as long as the data fit them well, and are framed exactly
+again once the stream stops: steadier to read, and an axis that changes must redraw its ticks.
+
 :func:`export_plot` writes any plot to PNG or SVG with pyqtgraph's exporters.
 """
 
 from __future__ import annotations
 
+import math
 from pathlib import Path
 from typing import Any, Callable
 
 import numpy as np
 import pyqtgraph as pg
 from pyqtgraph.exporters import ImageExporter, SVGExporter
-from PySide6.QtCore import QPoint, QRectF, QSize, Qt
+from PySide6.QtCore import QPoint, QRectF, QSize, Qt, QTimer
 from PySide6.QtGui import QAction, QColor, QPainter
 from PySide6.QtWidgets import (QCheckBox, QComboBox, QFileDialog, QGraphicsEllipseItem,
                                QGraphicsItem, QHBoxLayout, QLabel, QWidget)
@@ -38,6 +43,9 @@ TITLE_ROW_PX = 30  # pyqtgraph's fixed title row; the control strip covers it
 GRID_SHADE = 0.16  # grid lines: this far from the background towards the axis colour
 SMALL_PANE_PX = 460  # narrower or lower than this, axes ask for fewer ticks
 SMALL_PANE_TICK_DENSITY = 0.6
+STREAM_SETTLE_MS = 300  # results closer together than this are a live drag
+KEEP_FILL = 0.6  # while dragging, a view range is kept while the data fill this much of it
+DRAG_MARGIN = 0.2  # ... and a new one leaves this share of the data's span free each side
 
 
 def _pen(color: str, width: float = 1.0, style: Qt.PenStyle = Qt.PenStyle.SolidLine) -> Any:
@@ -107,6 +115,54 @@ class _ResultPlot(pg.PlotWidget):
         self._follow = True
         item.vb.sigRangeChangedManually.connect(self._stop_following)
         item.autoBtn.clicked.connect(self._start_following)
+        # While results stream in (a drag), the axes hold still unless the data outgrow them
+        # or shrink well inside them: steadier to read, and each axis change costs a redraw
+        # of its ticks. Once the stream stops the view is framed exactly again.
+        self._streaming = False
+        self._last_shown: Any = None
+        self._stream_timer = QTimer(self)
+        self._stream_timer.setSingleShot(True)
+        self._stream_timer.setInterval(STREAM_SETTLE_MS)
+        self._stream_timer.timeout.connect(self._stream_ended)
+
+    def _result_arrived(self, result: Any) -> None:
+        """Call first in ``show_result``: notes whether new results are streaming in (the
+        same result shown again, as for a baseline or an export, is not a stream)."""
+        visible = self.isVisible()
+        fresh = result is not self._last_shown
+        self._last_shown = result
+        self._streaming = visible and fresh and self._stream_timer.isActive()
+        if visible and fresh:
+            self._stream_timer.start()
+
+    def _stream_ended(self) -> None:
+        self._streaming = False
+        alive = not getattr(self, "closed", False) and self.__dict__.get("plotItem") is not None
+        if self._follow and alive:
+            self._reframe()
+
+    def hideEvent(self, event: Any) -> None:  # noqa: N802 (Qt override)
+        """Hidden (another tab, or closing) in a stream: frame exactly now, not later."""
+        if self._stream_timer.isActive():
+            self._stream_timer.stop()
+            self._stream_ended()
+        super().hideEvent(event)
+
+    def _show_range(self, view: pg.ViewBox, axis: int, lo: float, hi: float) -> None:
+        """Show ``[lo, hi]`` on ``view``'s x (0) or y (1) axis; while results stream in,
+        keep the current range as long as it frames ``[lo, hi]`` well."""
+        if not (np.isfinite(lo) and np.isfinite(hi) and hi > lo):
+            return
+        if self._streaming:
+            now_lo, now_hi = view.viewRange()[axis]
+            if now_lo <= lo and hi <= now_hi and hi - lo >= KEEP_FILL * (now_hi - now_lo):
+                return
+            margin = DRAG_MARGIN * (hi - lo)
+            lo, hi = lo - margin, hi + margin
+        if axis == 0:
+            view.setXRange(lo, hi, padding=0)
+        else:
+            view.setYRange(lo, hi, padding=0)
 
     def resizeEvent(self, event: Any) -> None:  # noqa: N802 (Qt override)
         """Fit the legend's columns and the tick density to the size; keep the control strip
@@ -124,10 +180,11 @@ class _ResultPlot(pg.PlotWidget):
         the room (the tab or the grid cell already says which plot it is)."""
         assert self.strip is not None
         self.strip.setGeometry(0, 0, self.width(), TITLE_ROW_PX)
-        layout = self.strip.layout()
-        controls = sum(layout.itemAt(i).sizeHint().width() + layout.spacing()
-                       for i in range(layout.count()) if layout.itemAt(i).widget()
-                       not in (None, self.title_label))
+        layout = self._strip_layout
+        items = [layout.itemAt(i) for i in range(layout.count())]
+        widgets = [item.widget() for item in items if item is not None]
+        controls = sum(w.sizeHint().width() + layout.spacing() for w in widgets
+                       if w is not None and w is not self.title_label)
         margins = layout.contentsMargins()
         room = self.width() - controls - margins.left() - margins.right() - layout.spacing()
         self.title_label.setVisible(self.title_label.sizeHint().width() <= room)
@@ -213,6 +270,7 @@ class _ResultPlot(pg.PlotWidget):
         layout.addStretch(1)
         strip.show()
         self.strip = strip
+        self._strip_layout = layout
         self._fit_strip()
         return layout
 
@@ -330,6 +388,7 @@ class MotionPlot(_ResultPlot):
 
     def show_result(self, result: Any, baseline: Any = None) -> None:
         """Draw ``result.motion`` (angles in degrees against time in s)."""
+        self._result_arrived(result)
         m = result.motion
         t = np.asarray(m.time_s, dtype=float)
         self.exact.setData(t, _deg(m.angle_rad))
@@ -358,12 +417,11 @@ class MotionPlot(_ResultPlot):
         t_lo, t_hi = min(s[0] for s in spans), max(s[1] for s in spans)
         top = max(s[2] for s in spans)
         vb = self.getPlotItem().vb
-        if t_hi > t_lo:
-            vb.setXRange(t_lo, t_hi, padding=0.01)
-        if top > 0:
-            vb.setYRange(-1.06 * top, 1.06 * top, padding=0)
+        pad = 0.01 * (t_hi - t_lo)
+        self._show_range(vb, 0, t_lo - pad, t_hi + pad)
+        self._show_range(vb, 1, -1.06 * top, 1.06 * top)
         diff = _abs_max(self.difference.getData()[1]) or 1e-9  # none: a flat line at 0
-        self.difference_view.setYRange(-1.1 * diff, 1.1 * diff, padding=0)
+        self._show_range(self.difference_view, 1, -1.1 * diff, 1.1 * diff)
 
 
 class PhasePlot(_ResultPlot):
@@ -425,6 +483,7 @@ class PhasePlot(_ResultPlot):
 
     def show_result(self, result: Any, baseline: Any = None) -> None:
         """Draw ``result.phase`` in degrees and degrees per second."""
+        self._result_arrived(result)
         phase = result.phase
         self._phase = phase
         self.current.setData(_deg(phase.current.angle_rad),
@@ -460,18 +519,20 @@ class PhasePlot(_ResultPlot):
         y = float(np.degrees(max(float(np.max(np.abs(o.angular_velocity_rad_s)))
                                  for o in orbits)))
         x, y = x * (1.0 if self._show_separatrix else 1.08), y * 1.08
-        if x > 0 and y > 0:
-            self.getPlotItem().vb.setRange(QRectF(-x, -y, 2 * x, 2 * y), padding=0)
+        vb = self.getPlotItem().vb
+        self._show_range(vb, 0, -x, x)
+        self._show_range(vb, 1, -y, y)
 
 
 PERIOD_QUANTITIES: tuple[tuple[str, str, str], ...] = (
     ("period", "Period (s)", "Period"),
     ("circular_error", "Circular error (s/day)", "Circular error"),
+    ("rate", "Rate against target (s/day)", "Rate"),
 )
-"""(key, axis label, name) of the quantities the period-curve plot can show. Both are fields
-of ``Result.period_curve``; circular error is a monotone transform of period, so they are
-shown one at a time rather than as two curves that look like one. (Rate against semi-arc
-would need a formula here: it is left until the core's curve carries it.)"""
+"""(key, axis label, name) of the quantities the period-curve plot can show, all fields of
+``Result.period_curve``. Each is a monotone transform of period, so they are shown one at a
+time rather than as curves that look like one. Rate needs a target; without one its curve is
+empty."""
 
 X_RANGES = ("near", "whole")
 X_RANGE_NAMES = {"near": "Near the working arc", "whole": "Whole range"}
@@ -500,6 +561,7 @@ class PeriodCurvePlot(_ResultPlot):
         # One curve per quantity; only the chosen one is shown (both hold the core's arrays).
         self.period = self._curve(theme.EXACT, 2.0, None, z=2)
         self.error = self._curve(theme.DIFFERENCE, 2.0, None, z=2)
+        self.rate = self._curve(theme.EXACT, 2.0, None, z=2)
         self.marker = pg.InfiniteLine(angle=90, movable=False,
                                       pen=_pen(theme.MARKER, 1.0, Qt.PenStyle.DashLine))
         self.marker.setZValue(4)
@@ -527,8 +589,9 @@ class PeriodCurvePlot(_ResultPlot):
         for key, _label, name in PERIOD_QUANTITIES:  # units are on the axis beside it
             self.quantity_box.addItem(name, key)
         self.quantity_box.setToolTip("What to draw against semi-arc: the exact period (s), "
-                                     "or the circular error (s/day), the rate lost to the "
-                                     "swing's amplitude")
+                                     "the circular error (s/day), the rate lost to the "
+                                     "swing's amplitude, or the clock's rate against its "
+                                     "target (s/day)")
         self.quantity_box.currentIndexChanged.connect(
             lambda i: self.set_quantity(self.quantity_box.itemData(i)))
         self.range_box = QComboBox()
@@ -574,6 +637,7 @@ class PeriodCurvePlot(_ResultPlot):
         _key, label, short = next(q for q in PERIOD_QUANTITIES if q[0] == self._quantity)
         self.period.setVisible(self._quantity == "period")
         self.error.setVisible(self._quantity == "circular_error")
+        self.rate.setVisible(self._quantity == "rate")
         self.getPlotItem().setLabel("left", label)
         self._set_title(f"{short} against semi-arc")
         _select(self.quantity_box, self._quantity)
@@ -596,7 +660,8 @@ class PeriodCurvePlot(_ResultPlot):
 
     def shown_values(self) -> np.ndarray:
         """The y values of the curve on view (the chosen quantity), as drawn."""
-        curve = self.period if self._quantity == "period" else self.error
+        curve = {"period": self.period, "circular_error": self.error,
+                 "rate": self.rate}[self._quantity]
         return np.asarray(curve.getData()[1], dtype=float)
 
     def marker_text(self) -> str:
@@ -606,11 +671,13 @@ class PeriodCurvePlot(_ResultPlot):
     # -------------------------------------------------------------- drawing
     def show_result(self, result: Any, baseline: Any = None) -> None:
         """Draw ``result.period_curve`` and mark ``result.amplitude_deg`` on it."""
+        self._result_arrived(result)
         self._result, self._baseline = result, baseline
         curve = result.period_curve
         amps = np.asarray(curve.amplitude_deg, dtype=float)
         self.period.setData(amps, np.asarray(curve.period_s, dtype=float))
         self.error.setData(amps, np.asarray(curve.circular_error_s_per_day, dtype=float))
+        self.rate.setData(amps, _rate_values(curve))
         amp = float(result.amplitude_deg)
         here = self._here(result)
         self.marker.setValue(amp)
@@ -628,12 +695,16 @@ class PeriodCurvePlot(_ResultPlot):
     def _values(self, curve: Any) -> np.ndarray:
         if self._quantity == "period":
             return np.asarray(curve.period_s, dtype=float)
+        if self._quantity == "rate":
+            return _rate_values(curve)
         return np.asarray(curve.circular_error_s_per_day, dtype=float)
 
     def _here(self, result: Any) -> float:
         """The chosen quantity at the working semi-arc (the core's own figure)."""
         if self._quantity == "period":
             return float(result.period_s)
+        if self._quantity == "rate":
+            return np.nan if result.rate_s_per_day is None else float(result.rate_s_per_day)
         return float(result.circular_error_s_per_day)
 
     def _reframe(self) -> None:
@@ -653,11 +724,18 @@ class PeriodCurvePlot(_ResultPlot):
         if not np.any(seen):
             return
         vb = self.getPlotItem().vb
-        vb.setXRange(0.0, top, padding=X_PADDING)
-        _fit_y(vb, self._values(curve)[seen])
+        self._show_range(vb, 0, -X_PADDING * top, (1.0 + X_PADDING) * top)
+        self._show_range(vb, 1, *_y_extent(self._values(curve)[seen]))
         side = LABEL_LEFT if result.amplitude_deg > 0.6 * top else LABEL_RIGHT
         self.marker_label.anchors = [side, side]
         self.marker_label.updatePosition()
+
+
+def _rate_values(curve: Any) -> np.ndarray:
+    """The curve's rate against the target (s/day), NaN throughout when there is no target."""
+    if curve.rate_s_per_day is None:
+        return np.full(np.shape(curve.amplitude_deg), np.nan)
+    return np.asarray(curve.rate_s_per_day, dtype=float)
 
 
 PLOT_CLASSES: tuple[type[_ResultPlot], ...] = (MotionPlot, PhasePlot, PeriodCurvePlot)
@@ -682,14 +760,15 @@ def _abs_max(values: Any) -> float:
     return float(a.max()) if a.size else 0.0
 
 
-def _fit_y(view: pg.ViewBox, values: np.ndarray) -> None:
+def _y_extent(values: np.ndarray) -> tuple[float, float]:
+    """The finite values' range with 6 % to spare each side (NaNs when there are none)."""
     finite = values[np.isfinite(values)]
     if finite.size == 0:
-        return
+        return math.nan, math.nan
     lo, hi = float(finite.min()), float(finite.max())
     span = hi - lo
     pad = span * 0.06 if span > 0 else max(abs(hi) * 1e-6, 1e-9)
-    view.setYRange(lo - pad, hi + pad, padding=0)
+    return lo - pad, hi + pad
 
 
 def _fill_slots(slots: list[pg.PlotCurveItem], orbits: Any) -> None:

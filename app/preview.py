@@ -29,7 +29,7 @@ from PySide6 import QtCore, QtGui, QtWidgets
 from core.analysis import LOAD_CAUTION, SPRING_CAUTION
 
 from . import theme
-from .plots import style_axis
+from .plots import DRAG_MARGIN, KEEP_FILL, STREAM_SETTLE_MS, style_axis
 
 __all__ = ["SwingPreview", "SwingPreviewControls", "Outline", "outlines_from_bodies",
            "deepest_point_m", "SPEEDS"]
@@ -347,6 +347,13 @@ class SwingPreview(pg.PlotWidget):
         self._timer.setInterval(FRAME_INTERVAL_MS)
         self._timer.timeout.connect(self._on_frame)
         self._elapsed = QtCore.QElapsedTimer()
+        # Results streaming in (a drag): the view holds still while the drawing fits it well
+        # (as in the plots); framed exactly again once the stream stops.
+        self._streaming = False
+        self._stream_timer = QtCore.QTimer(self)
+        self._stream_timer.setSingleShot(True)
+        self._stream_timer.setInterval(STREAM_SETTLE_MS)
+        self._stream_timer.timeout.connect(self._stream_ended)
         self._setup_axes()
         self._setup_envelope()
         self._setup_overlay()
@@ -437,6 +444,11 @@ class SwingPreview(pg.PlotWidget):
         The items are made once and moved to each new result; they are made again only when
         the set of parts (names, kinds, shapes) changes.
         """
+        visible = self.isVisible()
+        fresh = result is not self._result
+        self._streaming = visible and fresh and self._stream_timer.isActive()
+        if visible and fresh:
+            self._stream_timer.start()
         self._result = result
         outlines = outlines_from_bodies(result.bodies)
         self._clock = _MotionClock(result)
@@ -643,6 +655,15 @@ class SwingPreview(pg.PlotWidget):
                  bottom + 0.05 * span)
         if shown == self._shown_range:
             return
+        if self._streaming:
+            (x0, x1), (y0, y1) = self.getPlotItem().getViewBox().viewRange()
+            inside = x0 <= shown[0] and shown[1] <= x1 and y0 <= shown[2] and shown[3] <= y1
+            fills = (shown[1] - shown[0] >= KEEP_FILL * (x1 - x0)
+                     or shown[3] - shown[2] >= KEEP_FILL * (y1 - y0))
+            if inside and fills:
+                return
+            mx, my = DRAG_MARGIN * (shown[1] - shown[0]), DRAG_MARGIN * (shown[3] - shown[2])
+            shown = (shown[0] - mx, shown[1] + mx, shown[2] - my, shown[3] + my)
         self._shown_range = shown
         self.getPlotItem().getViewBox().setRange(xRange=shown[:2], yRange=shown[2:],
                                                  padding=0.0)
@@ -690,6 +711,12 @@ class SwingPreview(pg.PlotWidget):
         if text != self._caution.text:
             self._caution.setText(text)
 
+    def _stream_ended(self) -> None:
+        self._streaming = False
+        alive = not getattr(self, "closed", False) and self.__dict__.get("plotItem") is not None
+        if self._drawing is not None and alive:
+            self._fit_view()
+
     # ------------------------------------------------------------------ animation
     def _on_frame(self) -> None:
         self.advance(self._elapsed.restart() / 1000.0)
@@ -731,6 +758,9 @@ class SwingPreview(pg.PlotWidget):
     def hideEvent(self, event: QtGui.QHideEvent) -> None:  # noqa: N802 (Qt name)
         """Stop the timer while hidden; it resumes when shown if still playing."""
         self._timer.stop()
+        if self._stream_timer.isActive():  # in a stream: frame exactly now, not later
+            self._stream_timer.stop()
+            self._stream_ended()
         super().hideEvent(event)
 
     def showEvent(self, event: QtGui.QShowEvent) -> None:  # noqa: N802 (Qt name)

@@ -53,7 +53,7 @@ class ReadoutPanel(QWidget):
         self._budget_items: list[QTreeWidgetItem] = []
         self._notes_shown: tuple[Any, ...] = ()
         self._own_min_width: int | None = None
-        layout = QVBoxLayout(self)
+        layout = self._layout = QVBoxLayout(self)
         layout.setContentsMargins(6, 6, 8, 8)
         layout.setSpacing(6)
         self.compute_problem = QLabel()
@@ -157,7 +157,7 @@ class ReadoutPanel(QWidget):
         if self._own_min_width is None:
             self._own_min_width = self.minimumWidth()  # what the window asked for
         self.tree.setMinimumWidth(self._tree_width(self.tree, delta=show))
-        margins = self.layout().contentsMargins()
+        margins = self._layout.contentsMargins()
         needed = self.tree.minimumWidth() + margins.left() + margins.right()
         self.setMinimumWidth(max(self._own_min_width, needed))
 

@@ -38,7 +38,7 @@ PIVOT = "pivot"  # core.solve.sweep_field's name for moving the pivot down the p
 SWEEP_POINTS = 101
 SWEEP_INTERVAL_MS = 60
 AROUND_FRACTION = 0.2  # default range: ±20 % around the current value
-PIVOT_RANGE = (-0.1, 0.95)  # default pivot range, as fractions of the deepest rod end
+PIVOT_RANGE = (-0.1, 1.0)  # default pivot range, as fractions of the deepest rod end
 QUANTITIES = (("period", "Period (s)"), ("rate", "Rate (s/day)"))
 _SWEPT_KEYS = ("length_m", "at_m", "top_m", "mass_kg")  # in the order offered
 _UNITS = {"m": "m", "kg": "kg", "n_m_per_rad": "N·m/rad"}
@@ -96,7 +96,7 @@ def _longest_rod_end(design: Any) -> float:
 
 def default_range(design: Any, field: SweepField) -> tuple[float, float]:
     """The range swept unless the person sets one: ±20 % around the current value (inside
-    the field's allowed range); for the pivot, from −0.1 L to 0.95 L, L the deepest rod end."""
+    the field's allowed range); for the pivot, from −0.1 L to L, L the deepest rod end."""
     if field.path == PIVOT:
         length = _longest_rod_end(design)
         return PIVOT_RANGE[0] * length, PIVOT_RANGE[1] * length
@@ -202,6 +202,16 @@ class SweepPlot(QWidget):
                                       pen=pg.mkPen(theme.MARKER, width=1.0,
                                                    style=Qt.PenStyle.DashLine))
         item.addItem(self.marker, ignoreBounds=True)
+        # Pivot sweep: the conjugate pivot, where the turned-over pendulum keeps the period.
+        self.conjugate = pg.InfiniteLine(angle=90, movable=False,
+                                         pen=pg.mkPen(theme.DIFFERENCE, width=1.0,
+                                                      style=Qt.PenStyle.DotLine))
+        self.conjugate_label = pg.InfLineLabel(self.conjugate, "", position=0.9,
+                                               anchors=[(1.03, 0.5), (1.03, 0.5)],
+                                               color=theme.DIFFERENCE,
+                                               fill=pg.mkBrush(252, 251, 248, 225))
+        item.addItem(self.conjugate, ignoreBounds=True)
+        self.conjugate.setVisible(False)
         self.dot = _dot(theme.MARKER)
         self.least_dot = _dot(theme.DIFFERENCE)
         self.marker_label = pg.TextItem("", color=theme.MARKER, anchor=(0, 1),
@@ -427,6 +437,7 @@ class SweepPlot(QWidget):
             self._set_note("")
         self._mark_current(result, rate, field)
         self._mark_least(xs, ys, table, "" if field is None else field.unit)
+        self._mark_conjugate(result, field is None or field.path == PIVOT)
         finite = ys[np.isfinite(ys)]
         vb = item.vb
         vb.setXRange(float(xs[0]), float(xs[-1]), padding=0.02)
@@ -452,7 +463,7 @@ class SweepPlot(QWidget):
         shown = here is not None and math.isfinite(here)
         self.dot.setVisible(shown)
         self.marker_label.setVisible(shown)
-        if shown:
+        if here is not None and shown:
             self.dot.setPos(value, here)
             self.marker_label.setPos(value, here)
             at = ("as designed" if field is None or field.path == PIVOT
@@ -494,6 +505,20 @@ class SweepPlot(QWidget):
         self.least_label.setAnchor((0.5, 1.3) if self._quantity == "rate" else (0.5, -0.3))
         self.least_label.setText(f"shortest period {table.period_s[i]:.6f} s "
                                  f"at {xs[i]:.4g} {unit}".rstrip())
+
+    def _mark_conjugate(self, result: Any, pivot_sweep: bool) -> None:
+        """For the pivot sweep, the centre of oscillation (the core's figure): hung from
+        there, turned over, the pendulum swings with the design's own period (Kater)."""
+        self.conjugate.setVisible(pivot_sweep)
+        if pivot_sweep:
+            at = float(result.centre_of_oscillation_m)
+            self.conjugate.setValue(at)
+            self.conjugate_label.setFormat(f"conjugate pivot {at:.4f} m")
+            self.conjugate_label.valueChanged()
+
+    def conjugate_text(self) -> str:
+        """The conjugate pivot's label (pivot sweep), or "" when not shown."""
+        return self.conjugate_label.textItem.toPlainText() if self.conjugate.isVisible() else ""
 
     def marker_text(self) -> str:
         """The label at the current value, as plain text."""

@@ -42,17 +42,21 @@ LOAD_CAUTION = (
 SPRING_CAUTION = (
     "Suspension-spring and knife-edge stresses are outside what Penduline checks or certifies.")
 
-_CURVE_AMPLITUDES_DEG = np.concatenate([np.linspace(0.05, 170.0, 340),
+# Dense where clocks swing (0.05°–10°, geometric), even to 170°, dense again towards 180°.
+_CURVE_AMPLITUDES_DEG = np.concatenate([np.geomspace(0.05, 10.0, 160),
+                                        np.linspace(11.0, 170.0, 180),
                                         np.linspace(170.5, 179.9, 60)])
 
 
 @dataclass(frozen=True)
 class PeriodCurve:
-    """Exact period (s) and circular error (s/day) against semi-arc (degrees)."""
+    """Exact period (s), circular error (s/day) and rate against the target (s/day; None
+    without a target) against semi-arc (degrees)."""
 
     amplitude_deg: FloatArray
     period_s: FloatArray
     circular_error_s_per_day: FloatArray
+    rate_s_per_day: FloatArray | None = None
 
 
 @dataclass(frozen=True)
@@ -190,11 +194,14 @@ def _cautions(design: Design, exhibit: ExhibitFigures) -> tuple[str, ...]:
 
 
 def period_curve(state: PendulumState) -> PeriodCurve:
-    """Exact period and circular error against semi-arc, 0.05°–179.9°."""
+    """Exact period, circular error and rate against semi-arc, 0.05°–179.9°."""
     amps = _CURVE_AMPLITUDES_DEG
     periods = period_exact(state.inertia_kg_m2, state.torque_n_m, state.stiffness_n_m_per_rad,
                            np.radians(amps))
-    return PeriodCurve(amps, periods, SECONDS_PER_DAY * (1.0 - state.period_small_s / periods))
+    target = state.target_period_s
+    rate = None if target is None else SECONDS_PER_DAY * (target / periods - 1.0)
+    return PeriodCurve(amps, periods, SECONDS_PER_DAY * (1.0 - state.period_small_s / periods),
+                       rate)
 
 
 @guarded("design")

@@ -96,11 +96,15 @@ def gravity_at(design: Design, elevation_m: float | None = None) -> float:
 
 def pendulum_state(design: Design, *, temperature_c: float | None = None,
                    pressure_hpa: float | None = None, elevation_m: float | None = None,
-                   amplitude_deg: float | None = None, slopes: bool = True) -> PendulumState:
+                   amplitude_deg: float | None = None, slopes: bool = True,
+                   hang_either_way: bool = False) -> PendulumState:
     """Evaluate ``design`` under its site's conditions, or the ones overridden here.
 
     With ``slopes=False`` only the period is computed (the period slopes are NaN): the fast
-    path for the many perturbed evaluations of sensitivities, budgets and solvers.
+    path for the many perturbed evaluations of sensitivities, budgets and solvers. With
+    ``hang_either_way`` a body whose centre of mass lies above the pivot is taken as turned
+    over so that it hangs below it (a reversible pendulum on its other pivot): the torque's
+    magnitude is used.
 
     Raises
     ------
@@ -116,6 +120,8 @@ def pendulum_state(design: Design, *, temperature_c: float | None = None,
     bodies = layout(design, t)
     mass = mass_properties(bodies, rho)
     torque = g * mass.effective_first_moment_kg_m
+    if hang_either_way:
+        torque = abs(torque)
     if not torque > 0.0 or not math.isfinite(torque):
         raise DesignError("parts", "the centre of mass must hang below the pivot (the design's "
                                    f"first moment Σ m·z is {mass.first_moment_kg_m:.4g} kg·m)")

@@ -182,8 +182,14 @@ class SweepTable:
 @guarded("field")
 def sweep_field(design: Design, path: str, start: float, stop: float, points: int = 101
                 ) -> SweepTable:
-    """Exact period and rate (s/day) for ``points`` values of field ``path`` (``pivot``: the
-    pivot shifted down the pendulum by the value, m)."""
+    """Exact period and rate (s/day) for ``points`` values of field ``path``.
+
+    ``path="pivot"`` shifts the pivot down the pendulum by the value (m). Past the centre of
+    mass the pendulum is taken as turned over to hang from the new pivot, so the curve shows
+    both branches of a reversible pendulum: the shortest period where the pivot distance equals
+    the radius of gyration about the centre of mass, and the conjugate pivot (the centre of
+    oscillation) with the design's own period.
+    """
     if not 2 <= points <= 100000:
         raise DesignError("points", f"points={points} is out of range: it must be in [2, 100000]")
     for name, v in (("from", start), ("to", stop)):
@@ -198,7 +204,8 @@ def sweep_field(design: Design, path: str, start: float, stop: float, points: in
         try:
             d_obj = shift_pivot(base, float(x)) if path == "pivot" else set_in_dict(
                 base, path, float(x))
-            periods[i] = pendulum_state(design_from_dict(d_obj), slopes=False).period_s
+            periods[i] = pendulum_state(design_from_dict(d_obj), slopes=False,
+                                        hang_either_way=path == "pivot").period_s
             reasons.append("")
         except DesignError as exc:
             reasons.append(str(exc))

@@ -93,8 +93,22 @@ class TestPeriodCurve:
         assert plot.getPlotItem().getAxis("left").labelText == "Circular error (s/day)"
         np.testing.assert_allclose(plot.shown_values(),
                                    result.period_curve.circular_error_s_per_day)
+        plot.quantity_box.setCurrentIndex(2)  # the rate against the target
+        assert plot.quantity == "rate" and plot.rate.isVisible() and not plot.error.isVisible()
+        np.testing.assert_allclose(plot.shown_values(), result.period_curve.rate_s_per_day)
+        assert plot.dot.pos().y() == pytest.approx(result.rate_s_per_day)
         with pytest.raises(ValueError, match="quantity"):
-            plot.set_quantity("rate")
+            plot.set_quantity("beats")
+
+    def test_rate_without_a_target_draws_nothing(self, qtbot, results) -> None:  # type: ignore[no-untyped-def]
+        result, _ = results
+        untargeted = analyse(with_value(result.design, "target.period_s", None))
+        assert untargeted.period_curve.rate_s_per_day is None
+        plot = PeriodCurvePlot()
+        qtbot.addWidget(plot)
+        plot.set_quantity("rate")
+        plot.show_result(untargeted)
+        assert np.isnan(plot.shown_values()).all()
 
     def test_working_arc_is_marked_on_the_curve_with_its_values(self, qtbot, results) -> None:  # type: ignore[no-untyped-def]
         result, _ = results  # workshop regulator: 1.6°, 1.999926 s, 4.211 s/day
@@ -284,3 +298,29 @@ class TestSvgGeometry:
         root = ET.parse(svg).getroot()
         assert root.get("viewBox").split() == ["0", "0", "320", "90"]
         assert _size_px(root, label.logicalDpiX()) == pytest.approx((320.0, 90.0), abs=0.5)
+
+
+class TestLiveDrag:
+    def test_axes_hold_still_while_results_stream_in(self, qtbot, results) -> None:  # type: ignore[no-untyped-def]
+        result, _ = results
+        plot = _laid_out(PhasePlot(), 600, 400)
+        qtbot.addWidget(plot)
+        plot._stream_timer.setInterval(60_000)  # the stream ends when the test says so
+        vb = plot.getPlotItem().vb
+        plot.show_result(result)  # the first result after a pause: framed exactly
+        framed = vb.viewRange()
+        assert framed[1][1] == pytest.approx(
+            1.08 * float(np.degrees(max(np.max(np.abs(o.angular_velocity_rad_s))
+                                        for o in (result.phase.current,
+                                                  *result.phase.neighbours)))), rel=1e-9)
+        slower = analyse(with_value(result.design, "parts[0].length_m", 1.12))
+        plot.show_result(slower)  # a drag: slightly slower swings fit the axes as they are
+        assert vb.viewRange() == framed
+        far = analyse(with_value(result.design, "parts[0].length_m", 0.6))
+        plot.show_result(far)  # outgrows them: new axes with room for the next steps
+        y_top = 1.08 * float(np.degrees(max(np.max(np.abs(o.angular_velocity_rad_s))
+                                            for o in (far.phase.current,
+                                                      *far.phase.neighbours))))
+        assert vb.viewRange()[1][1] == pytest.approx(y_top * 1.4, rel=1e-9)
+        plot._stream_ended()  # the drag is over: framed exactly
+        assert vb.viewRange()[1][1] == pytest.approx(y_top, rel=1e-9)

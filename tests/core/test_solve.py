@@ -146,3 +146,47 @@ class TestSweepField:
             sweep_field(d, "parts[1].mount.centre_m", 0.5, math.nan, 5)
         with pytest.raises(DesignError):
             sweep_field(d, "parts[1].mount.centre_m", 0.5, 1.0, 1)
+
+
+class TestPivotSweepReversible:
+    """Kater's reversible pendulum (Kater 1818; standard mechanics texts [pub, memory]): the
+    period is least where the pivot's distance from the centre of mass equals the radius of
+    gyration k_c about it, and a pivot at the centre of oscillation, on the far side of the
+    centre of mass, gives the same period as the original pivot."""
+
+    def _compound(self):  # type: ignore[no-untyped-def]
+        from core import design_from_dict
+
+        from _core_builders import bob, clamp, design, rod
+
+        # DOMAIN §3's compound example: rod 1.000 m, 0.25 kg; disc R = 0.075 m, 3.0 kg at 0.95 m,
+        # vacuum, g_n, a small arc.
+        return design_from_dict(design([
+            rod(length_m=1.0, diameter_m=1e-4, mass_kg=0.25),
+            bob("disc", diameter_m=0.15, thickness_m=1e-4, mass_kg=3.0,
+                mount=clamp(centre_m=0.95))], amplitude_deg=0.01))
+
+    def test_conjugate_pivot_keeps_the_period(self) -> None:
+        from core import analyse
+        from core.solve import sweep_field
+
+        d = self._compound()
+        r = analyse(d)
+        # mpmath-free reference: the same design's own exact period at its own pivot.
+        table = sweep_field(d, "pivot", 0.0, r.centre_of_oscillation_m, 2)
+        assert table.period_s[1] == pytest.approx(table.period_s[0], rel=1e-12)
+        assert table.period_s[0] == pytest.approx(r.period_s, rel=1e-15)
+
+    def test_least_period_where_pivot_distance_is_the_radius_of_gyration(self) -> None:
+        from core import analyse
+        from core.solve import sweep_field
+
+        d = self._compound()
+        r = analyse(d)
+        h = r.centre_of_mass_m
+        k_c = (r.inertia_pivot_kg_m2 / r.mass_kg - h * h) ** 0.5  # parallel-axis theorem
+        # the pivot at distance k_c above the centre of mass: shift = h − k_c
+        around = np.linspace(h - k_c - 0.02, h - k_c + 0.02, 4001)
+        table = sweep_field(d, "pivot", float(around[0]), float(around[-1]), 4001)
+        best = float(table.values[int(np.nanargmin(table.period_s))])
+        assert best == pytest.approx(h - k_c, abs=2e-5)  # the grid step is 1e-5 m
