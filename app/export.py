@@ -133,12 +133,26 @@ def export_all(file: str | os.PathLike[str], out_dir: str | os.PathLike[str]) ->
     """
     from core import analyse, load_design
 
+    ensure_application()
+    result = analyse(load_design(file))
+    return export_result(result, out_dir, Path(file).name)
+
+
+def export_result(result: Any, out_dir: str | os.PathLike[str], source_name: str
+                  ) -> list[Path]:
+    """Write every plot (PNG and SVG), the CSVs and the PDF report of ``result`` into
+    ``out_dir``; ``source_name`` is the design's file name shown in the report.
+
+    Raises
+    ------
+    core.DesignError
+        ``field="out"`` when the output cannot be written.
+    """
     from . import data_export
     from .plots import export_plot
     from .report_pdf import widget_image
 
     app = ensure_application()
-    result = analyse(load_design(file))
     out = _output_dir(out_dir)
     widgets = _plot_widgets(result, app)
     written: list[Path] = []
@@ -154,7 +168,7 @@ def export_all(file: str | os.PathLike[str], out_dir: str | os.PathLike[str]) ->
         images = {w.title: widget_image(w) for w in widgets}
         captions = {w.title: _CAPTIONS.get(w.slug, "") for w in widgets}
         written.append(_write(out / "report.pdf", partial(
-            _write_report, result, images, captions, Path(file).name)))
+            _write_report, result, images, captions, source_name)))
     finally:
         _dispose(widgets)
     return written

@@ -152,6 +152,8 @@ class MainWindow(QMainWindow):
         self._action(menu, "Save &as…", self.save_as, QKeySequence.StandardKey.SaveAs)
         menu.addSeparator()
         self._action(menu, "&Export plots…", self.ask_export_plots, "Ctrl+E")
+        self._action(menu, "Export plots, data and &report…", self.ask_export_all,
+                     "Ctrl+Shift+E")
         menu.addSeparator()
         self._action(menu, "&Quit", self.close, QKeySequence.StandardKey.Quit)
 
@@ -452,6 +454,28 @@ class MainWindow(QMainWindow):
         except (OSError, ValueError) as exc:
             self.show_message("Cannot export plots", str(exc))
         return written
+
+    def ask_export_all(self) -> None:
+        """File ▸ Export plots, data and report…: choose a folder."""
+        folder = QFileDialog.getExistingDirectory(self, "Export plots, data and report to folder")
+        if folder:
+            written = self.export_all(folder)
+            if written:
+                self.statusBar().showMessage(f"Wrote {len(written)} files to {folder}", 5000)
+
+    def export_all(self, folder: str | Path) -> list[Path]:
+        """Write every plot, the CSV data and the PDF report of the current result."""
+        from .export import export_result
+
+        self.compute_now()
+        if self.result is None:
+            self.show_message("Cannot export", "There is no valid design to export yet.")
+            return []
+        try:
+            return export_result(self.result, folder, self.document.display_name())
+        except DesignError as exc:
+            self.show_message("Cannot export", f"{exc.field}: {exc.reason}")
+            return []
 
     def show_message(self, title: str, text: str) -> None:
         """Tell the person something went wrong (a window-modal box that does not block)."""

@@ -1,4 +1,4 @@
-"""The pinned baseline: kept through undo/redo, shown as exact deltas in the readout."""
+"""The pinned baseline (kept through undo/redo, exact deltas) and exporting from the window."""
 
 from __future__ import annotations
 
@@ -39,3 +39,19 @@ def test_delta_column_is_the_exact_difference(window: MainWindow) -> None:
     assert window.result.period_s - base.period_s == now.period_s - base.period_s
     text = window.readout._items["rate_s_per_day"][0].text(3)
     assert float(text) == pytest.approx(now.rate_s_per_day - base.rate_s_per_day, abs=0.005)
+
+
+def test_window_exports_plots_data_and_report(window: MainWindow, tmp_path) -> None:  # type: ignore[no-untyped-def]
+    import csv
+
+    _edit(window, "swing.amplitude_deg", 2.0)  # the current, unsaved design is exported
+    written = window.export_all(tmp_path / "out")
+    names = {p.name for p in written}
+    assert {"motion.png", "motion.svg", "report.pdf", "motion.csv"} <= names
+    assert (tmp_path / "out" / "report.pdf").read_bytes()[:5] == b"%PDF-"
+    with open(tmp_path / "out" / "motion.csv", newline="", encoding="utf-8") as fh:
+        rows = list(csv.reader(fh))
+    header = rows[0]
+    angles = [float(r[header.index(next(h for h in header if h.startswith("exact_angle")))])
+              for r in rows[1:]]
+    assert max(angles) == pytest.approx(2.0, rel=1e-9)  # degrees: the edited semi-arc
