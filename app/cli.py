@@ -37,6 +37,15 @@ def _parsers() -> tuple[_Parser, _Parser]:
     rep = sub.add_parser("report", help="print the readout")
     rep.add_argument("file")
     rep.add_argument("--json", action="store_true", help="one JSON object, SI units")
+    rep.add_argument("--trim-height", type=float, metavar="M",
+                     help="quote the 1 g trim sensitivity at this height below the pivot (m)")
+    rep.add_argument("--budget-temperature", type=float, default=5.0, metavar="K",
+                     help="rate budget: temperature half-range around the site's (default 5)")
+    rep.add_argument("--budget-pressure", type=float, default=30.0, metavar="HPA",
+                     help="rate budget: pressure half-range around the site's (default 30)")
+    rep.add_argument("--budget-arc", type=float, default=0.1, metavar="DEG",
+                     help="rate budget: semi-arc half-range around the working arc "
+                          "(default 0.1)")
     sol = sub.add_parser("solve", help="find the value of one field that meets a goal")
     sol.add_argument("file")
     sol.add_argument("--vary", required=True, metavar="FIELD",
@@ -93,10 +102,13 @@ def main(argv: Sequence[str] | None = None) -> int:
 
 def _report(args: argparse.Namespace) -> int:
     from core import analyse, load_design
+    from core.tuning import budget_ranges
 
     from .readout_format import rows
 
-    result = analyse(load_design(args.file))
+    design = load_design(args.file)
+    ranges = budget_ranges(args.budget_temperature, args.budget_pressure, args.budget_arc)
+    result = analyse(design, trim_height_m=args.trim_height, budget_ranges=ranges)
     report = result.report_dict()
     if args.json:
         print(json.dumps(report, indent=2, ensure_ascii=False))

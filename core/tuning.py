@@ -12,6 +12,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from .design import Bob, ClampMount, Design
+from .errors import DesignError
 from .mass_properties import Body
 from .model import PendulumState, gravity_at, pendulum_state
 
@@ -191,6 +192,25 @@ class BudgetRanges:
     arc_deg: float = 0.1
 
 
+def budget_ranges(temperature_k: float = 5.0, pressure_hpa: float = 30.0, arc_deg: float = 0.1
+                  ) -> BudgetRanges:
+    """Validated budget half-ranges (K, hPa, degrees): finite and not negative.
+
+    Raises
+    ------
+    DesignError
+        Naming ``budget.temperature_k``, ``budget.pressure_hpa`` or ``budget.arc_deg``.
+    """
+    limits = {"temperature_k": (temperature_k, 100.0), "pressure_hpa": (pressure_hpa, 500.0),
+              "arc_deg": (arc_deg, 90.0)}
+    for name, (value, top) in limits.items():
+        if isinstance(value, bool) or not isinstance(value, (int, float)) or not (
+                0.0 <= value <= top):
+            raise DesignError(f"budget.{name}", f"{name}={value!r} is out of range: it must "
+                                                f"be in [0, {top:g}]")
+    return BudgetRanges(float(temperature_k), float(pressure_hpa), float(arc_deg))
+
+
 def rate_budget(design: Design, state: PendulumState,
                 ranges: BudgetRanges = BudgetRanges()) -> RateBudget:
     """Rate at each end of each range, the other conditions held at the site's values."""
@@ -215,4 +235,4 @@ def rate_budget(design: Design, state: PendulumState,
     return RateBudget(tuple(lines))
 
 
-__all__ += ["BudgetRanges", "gravity_at"]
+__all__ += ["BudgetRanges", "budget_ranges", "gravity_at"]

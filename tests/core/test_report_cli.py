@@ -107,3 +107,31 @@ class TestReportBadInput:
         assert code == 2 and out == ""
         lines = err.strip().splitlines()
         assert len(lines) == 1 and "file" in lines[0] and "Traceback" not in err
+
+
+class TestBudgetAndTrimOptions:
+    def test_budget_ranges_and_trim_height_reach_the_core(self, capsys) -> None:  # type: ignore[no-untyped-def]
+        from core.tuning import BudgetRanges
+
+        code, out, _ = run(capsys, "report", str(EXAMPLE), "--json", "--budget-temperature",
+                           "10", "--budget-arc", "0.2", "--trim-height", "0.3")
+        assert code == 0
+        got = json.loads(out)
+        want = analyse(load_design(EXAMPLE), trim_height_m=0.3,
+                       budget_ranges=BudgetRanges(temperature_k=10.0, arc_deg=0.2))
+        lines = {line["cause"]: line for line in got["rate_budget"]}
+        assert lines["Temperature"]["low"] == pytest.approx(10.0)  # 20 °C − 10 K
+        for line, expected in zip(got["rate_budget"], want.budget.lines):
+            assert line["spread_s_per_day"] == expected.spread_s_per_day
+        assert got["trim_height_m"] == 0.3
+        assert got["trim_s_per_day_per_g"] == want.sensitivities.trim_s_per_day_per_g
+
+    @pytest.mark.parametrize("option, value, field", [
+        ("--budget-temperature", "-1", "budget.temperature_k"),
+        ("--budget-pressure", "nan", "budget.pressure_hpa"),
+        ("--trim-height", "inf", "trim_height_m"),
+    ])
+    def test_bad_options_exit_2_naming_the_field(self, capsys, option, value, field) -> None:  # type: ignore[no-untyped-def]
+        code, out, err = run(capsys, "report", str(EXAMPLE), option, value)
+        assert code == 2 and out == ""
+        assert err.count("\n") == 1 and err.startswith(f"penduline: {field}: ")
