@@ -229,6 +229,8 @@ class TextRow(Row):
         if self.edit.text() != self._shown:
             self.edit.blockSignals(True)
             self.edit.setText(self._shown)
+            if not self.edit.hasFocus():
+                self.edit.setCursorPosition(0)  # a long name shows its beginning
             self.edit.blockSignals(False)
         self.mark("")
 

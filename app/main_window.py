@@ -5,11 +5,16 @@ single-shot zero-delay timer; when it fires, only the newest design is analysed 
 ``core.analyse``, the one place figures come from) and shown, so a burst of edits never queues
 stale work. A design the core cannot compute leaves the plots and figures at the last good
 result and says why.
+
+The readout's choices (the height at which to quote the trim weight, the rate budget's
+ranges) are passed to ``core.analyse`` as they are; the budget's ranges are judged by the
+core's ``budget_ranges`` and kept in the settings, not in the design file.
 """
 
 from __future__ import annotations
 
 import time
+from dataclasses import asdict
 from pathlib import Path
 from typing import Any, Callable
 
@@ -20,6 +25,7 @@ from PySide6.QtWidgets import (QFileDialog, QLabel, QMainWindow, QMenu, QMessage
                                QWidget)
 
 from core import Design, DesignError, Result, analyse
+from core.tuning import BudgetRanges, budget_ranges
 
 from . import theme
 from .design_panel import DesignPanel, field_label
@@ -31,7 +37,8 @@ from .readout_panel import ReadoutPanel
 from .sweep_plot import SweepPlot
 from .recovery import (Autosaver, RecoveryEntry, find_orphans, read_entry, remove_entry,
                        set_aside)
-from .settings import add_recent_file, app_settings, recent_files
+from .settings import (add_recent_file, app_settings, recent_files, store_budget_ranges,
+                       stored_budget_ranges)
 from .units import UnitSystem
 
 __all__ = ["MainWindow", "examples_folder", "example_files", "DESIGN_FILTER"]
@@ -75,6 +82,7 @@ class MainWindow(QMainWindow):
         self.compute_count = 0
         self.last_compute_ms = 0.0
         self._trim_height: float | None = None
+        self._budget_ranges = stored_budget_ranges() if remember_layout else BudgetRanges()
         self._computed_key: tuple[Any, ...] | None = None
         self._problem: DesignError | None = None  # why the shown design cannot be computed
         self._system = _stored_units() if remember_layout else UnitSystem.METRIC
@@ -92,6 +100,7 @@ class MainWindow(QMainWindow):
         self.document.dirtyChanged.connect(self.setWindowModified)
         self.document.pathChanged.connect(lambda _path: self._update_title())
         self.readout.trimHeightChanged.connect(self._on_trim_height)
+        self.readout.budgetRangeChanged.connect(self._on_budget_range)
         self._restore_layout()
         self._update_title()
         self.schedule_compute()
@@ -99,12 +108,15 @@ class MainWindow(QMainWindow):
     # ================================================================== views
     def _build_views(self) -> None:
         self.design_panel = DesignPanel(self.document, self._system)
+        preview = SwingPreview()
+        preview.attach_controls()  # play, speed and clearance line on screen
         self.plots: list[QWidget] = [MotionPlot(), PhasePlot(), PeriodCurvePlot(),
-                                     SwingPreview(), SweepPlot()]
+                                     preview, SweepPlot()]
         self._stale_plots: set[int] = set()
         self.plot_area = PlotArea(self.plots, DEFAULT_ARRANGEMENT)
         self.plot_area.tabs.currentChanged.connect(lambda _index: self._refresh_plots())
         self.readout = ReadoutPanel(self._system)
+        self.readout.set_budget_ranges(self._budget_ranges)
         self.splitter = QSplitter(Qt.Orientation.Horizontal)
         self.splitter.setChildrenCollapsible(False)
         for widget in (self.design_panel, self.plot_area, self.readout):
@@ -246,13 +258,14 @@ class MainWindow(QMainWindow):
         """Analyse the document's design (unless it is the one already shown) and show it."""
         self._compute_timer.stop()
         design = self.document.design
-        key = (design, self._trim_height)
+        key = (design, self._trim_height, self._budget_ranges)
         if key == self._computed_key:
             return
         self._computed_key = key
         started = time.perf_counter()
         try:
-            result = analyse(design, trim_height_m=self._trim_height)
+            result = analyse(design, trim_height_m=self._trim_height,
+                             budget_ranges=self._budget_ranges)
         except DesignError as exc:
             self._problem = exc
             self._show_compute_problem(exc)
@@ -315,6 +328,26 @@ class MainWindow(QMainWindow):
 
     def _on_trim_height(self, height_m: float) -> None:
         self._trim_height = height_m
+        self.schedule_compute()
+
+    def budget_ranges(self) -> BudgetRanges:
+        """The rate budget's half-widths in use (K, hPa, degrees)."""
+        return self._budget_ranges
+
+    def _on_budget_range(self, key: str, value: float) -> None:
+        """A budget half-width entered: the core judges it; a refused one marks its entry and
+        the budget keeps the last good ranges."""
+        values = asdict(self._budget_ranges)
+        values[key] = value
+        try:
+            ranges = budget_ranges(**values)
+        except DesignError as exc:
+            self.readout.show_budget_problem(key, exc.reason)
+            return
+        self._budget_ranges = ranges
+        self.readout.set_budget_ranges(ranges)
+        if self._remember:
+            store_budget_ranges(ranges)
         self.schedule_compute()
 
     # ================================================================== baseline, units

@@ -7,6 +7,13 @@ they are made again only when parts are added, removed, renamed or change kind o
 Each animation frame only rotates that group (and the baseline ghost's group) to the angle of
 the exact motion ``Result.motion`` at the current time; nothing is rebuilt per frame.
 
+True speed: the swing time shown is read from a clock, not counted up frame by frame. Playing
+anchors the swing time to the clock's reading; each frame shows the pose at
+``anchor swing time + speed × (clock now − anchor reading)``. A late or dropped frame (a busy
+event loop during a drag) therefore never slows the swing down: the next frame drawn shows
+where the pendulum truly is. The clock is a small object with a ``now_s()`` method
+(:class:`WallClock` by default); tests hand the preview one they move by hand.
+
 Coordinates: x across the plane of swing (m, positive to the right), y down from the pivot
 (m; the view's y axis is inverted so that "down" is down on screen). A positive swing angle
 moves the bob to the right.
@@ -19,8 +26,9 @@ clearance are geometry of the drawn outlines.
 from __future__ import annotations
 
 import math
+import time
 from dataclasses import dataclass
-from typing import Any
+from typing import Any, Protocol
 
 import numpy as np
 import pyqtgraph as pg
@@ -32,7 +40,7 @@ from . import theme
 from .plots import DRAG_MARGIN, KEEP_FILL, STREAM_SETTLE_MS, style_axis
 
 __all__ = ["SwingPreview", "SwingPreviewControls", "Outline", "outlines_from_bodies",
-           "deepest_point_m", "SPEEDS"]
+           "deepest_point_m", "SPEEDS", "TimeSource", "WallClock"]
 
 SPEEDS: tuple[float, ...] = (1.0, 0.5, 0.25, 0.1)
 """Playback speed factors offered: true speed, ½×, ¼× and 1/10×."""
@@ -290,6 +298,22 @@ def _pivot_item() -> QtWidgets.QGraphicsPathItem:
     return item
 
 
+class TimeSource(Protocol):
+    """Where the animation reads the time."""
+
+    def now_s(self) -> float:
+        """Seconds on a clock that never goes back (any origin)."""
+        ...
+
+
+class WallClock:
+    """The animation's time source in the window: the monotonic performance counter, s."""
+
+    def now_s(self) -> float:
+        """Seconds on the monotonic performance counter (arbitrary origin)."""
+        return time.perf_counter()
+
+
 class _MotionClock:
     """Angle against time from the core's sampled motion; loops for display.
 
@@ -313,6 +337,9 @@ class _MotionClock:
         return float(np.interp(t, self.time_s, self.angle_rad))
 
 
+CONTROL_STRIP_PX = 30  # the strip of on-screen controls covers pyqtgraph's title row
+
+
 class SwingPreview(pg.PlotWidget):
     """The pendulum to scale, animated at true speed or slowed, with its sweep envelope.
 
@@ -328,7 +355,9 @@ class SwingPreview(pg.PlotWidget):
     speedChanged = QtCore.Signal(float)
     clearanceChanged = QtCore.Signal()
 
-    def __init__(self, parent: QtWidgets.QWidget | None = None) -> None:
+    def __init__(self, parent: QtWidgets.QWidget | None = None,
+                 clock: TimeSource | None = None) -> None:
+        """``clock``: where the animation reads the time (default :class:`WallClock`)."""
         super().__init__(parent=parent, background=BACKGROUND)
         self._result: Any = None
         self._drawing: _Drawing | None = None
@@ -339,14 +368,17 @@ class SwingPreview(pg.PlotWidget):
         self._time_s = 0.0
         self._speed = 1.0
         self._playing = False
+        self._wall_clock: TimeSource = clock if clock is not None else WallClock()
+        # While playing, the swing time shown is _anchor_time_s + speed × (now − _anchor_wall_s)
+        self._anchor_wall_s = 0.0
+        self._anchor_time_s = 0.0
         self._baseline: Any = None
         self._legend_names: tuple[str, ...] = ()
         self._shown_range: tuple[float, float, float, float] | None = None
         self._timer = QtCore.QTimer(self)
         self._timer.setTimerType(QtCore.Qt.TimerType.PreciseTimer)
         self._timer.setInterval(FRAME_INTERVAL_MS)
-        self._timer.timeout.connect(self._on_frame)
-        self._elapsed = QtCore.QElapsedTimer()
+        self._timer.timeout.connect(self.draw_frame)
         # Results streaming in (a drag): the view holds still while the drawing fits it well
         # (as in the plots); framed exactly again once the stream stops.
         self._streaming = False
@@ -477,11 +509,13 @@ class SwingPreview(pg.PlotWidget):
         playing = bool(playing) and self._clock is not None
         if playing == self._playing:
             return
-        self._playing = playing
         if playing:
-            self._elapsed.start()
+            self._anchor()
+            self._playing = True
             self._timer.start()
         else:
+            self._catch_up()  # pause where the swing truly is now
+            self._playing = False
             self._timer.stop()
         self._play_action.blockSignals(True)
         self._play_action.setChecked(playing)
@@ -504,6 +538,7 @@ class SwingPreview(pg.PlotWidget):
             raise ValueError(f"speed={factor!r} is not offered: choose one of {SPEEDS}")
         if factor == self._speed:
             return
+        self._catch_up()  # the time so far at the old speed, from now on at the new one
         self._speed = factor
         self._speed_actions[factor].setChecked(True)
         self._update_info()
@@ -511,12 +546,15 @@ class SwingPreview(pg.PlotWidget):
 
     @property
     def time_s(self) -> float:
-        """Swing time shown, s after release (advances by ``speed`` × wall time)."""
+        """Swing time shown by the last frame, s after release (while playing it runs at
+        ``speed`` × the clock's time)."""
         return self._time_s
 
     def set_time(self, time_s: float) -> None:
-        """Show the pendulum as it is ``time_s`` seconds after release from rest at θ₀."""
+        """Show the pendulum as it is ``time_s`` seconds after release from rest at θ₀ (while
+        playing, the swing runs on from there)."""
         self._time_s = float(time_s)
+        self._anchor()
         self._apply_time()
 
     def shown_angle_rad(self) -> float:
@@ -718,13 +756,40 @@ class SwingPreview(pg.PlotWidget):
             self._fit_view()
 
     # ------------------------------------------------------------------ animation
-    def _on_frame(self) -> None:
-        self.advance(self._elapsed.restart() / 1000.0)
+    def draw_frame(self) -> None:
+        """One animation frame (the frame timer calls this): pose the drawing at the swing
+        time the clock says it is now. Does nothing while paused."""
+        if not self._playing:
+            return
+        self._time_s = self._swing_time_now()
+        self._apply_time()
+
+    def _swing_time_now(self) -> float:
+        """Swing time (s after release) at the clock's reading now, while playing."""
+        elapsed = max(self._wall_clock.now_s() - self._anchor_wall_s, 0.0)
+        return self._anchor_time_s + self._speed * elapsed
+
+    def _anchor(self) -> None:
+        """From now on, the swing time runs on from the one shown."""
+        self._anchor_wall_s = self._wall_clock.now_s()
+        self._anchor_time_s = self._time_s
+
+    def _catch_up(self) -> None:
+        """While the animation runs: bring the shown swing time up to the clock's now and
+        anchor there (before a change of speed, a pause or hiding). While hidden the swing
+        time holds, and nothing is caught up."""
+        if not (self._playing and self._timer.isActive()):
+            return
+        self._time_s = self._swing_time_now()
+        self._anchor()
+        if not getattr(self, "closed", False) and self.__dict__.get("plotItem") is not None:
+            self._apply_time()
 
     def advance(self, wall_s: float) -> None:
-        """Move the swing on by ``speed`` × ``wall_s`` seconds of wall time (a frame's worth;
-        a stall longer than 0.25 s counts as 0.25 s so the swing never jumps)."""
-        self._time_s += self._speed * min(max(wall_s, 0.0), 0.25)
+        """Step the swing on by ``speed`` × ``wall_s`` seconds (by hand, whether playing or
+        not; a playing animation runs on from the new time)."""
+        self._time_s += self._speed * max(float(wall_s), 0.0)
+        self._anchor()
         self._apply_time()
 
     def _apply_time(self) -> None:
@@ -733,8 +798,31 @@ class SwingPreview(pg.PlotWidget):
         if self._ghost is not None and self._ghost_clock is not None:
             self._ghost.set_angle(self._ghost_clock.angle_at(self._time_s))
 
+    def attach_controls(self) -> "SwingPreviewControls":
+        """Put play/pause, speed and clearance-line controls in a strip over the title row
+        (on screen only: the strip is not part of the scene, so exports keep the title)."""
+        controls = SwingPreviewControls(self, parent=self)
+        controls.setAutoFillBackground(True)
+        palette = controls.palette()
+        palette.setColor(controls.backgroundRole(), QtGui.QColor(BACKGROUND))
+        controls.setPalette(palette)
+        title = QtWidgets.QLabel(self.title)
+        title.setStyleSheet(f"color: {INK}; font-size: 10pt;")
+        controls.layout().insertWidget(0, title)
+        controls.layout().insertSpacing(1, 12)
+        controls.show()
+        self.controls = controls
+        self._place_controls()
+        return controls
+
+    def _place_controls(self) -> None:
+        controls = self.__dict__.get("controls")
+        if controls is not None:
+            controls.setGeometry(0, 0, self.width(), CONTROL_STRIP_PX)
+
     def resizeEvent(self, event: QtGui.QResizeEvent) -> None:  # noqa: N802 (Qt name)
         """Wrap the caution to the new width before the plot's layout is redone."""
+        self._place_controls()
         # pyqtgraph resizes while the base is being built, and again while closing (its items
         # are deleted by then)
         if "_caution" in self.__dict__ and not getattr(self, "closed", False):
@@ -756,7 +844,9 @@ class SwingPreview(pg.PlotWidget):
             self._caution.updateMin()
 
     def hideEvent(self, event: QtGui.QHideEvent) -> None:  # noqa: N802 (Qt name)
-        """Stop the timer while hidden; it resumes when shown if still playing."""
+        """Stop the timer while hidden (the swing time holds); it resumes when shown if still
+        playing."""
+        self._catch_up()
         self._timer.stop()
         if self._stream_timer.isActive():  # in a stream: frame exactly now, not later
             self._stream_timer.stop()
@@ -766,7 +856,7 @@ class SwingPreview(pg.PlotWidget):
     def showEvent(self, event: QtGui.QShowEvent) -> None:  # noqa: N802 (Qt name)
         super().showEvent(event)
         if self._playing and not self._timer.isActive():
-            self._elapsed.start()
+            self._anchor()
             self._timer.start()
 
     # ------------------------------------------------------------------ clearance

@@ -3,14 +3,19 @@
 Rows, labels and formats come from :mod:`app.readout_format` (shared with the report and the
 PDF). Values are only converted to the chosen display units here; nothing is computed. The
 tree's items are created once and their texts updated on each result.
+
+The rate budget section starts with three entries: the half-widths of the temperature,
+pressure and semi-arc ranges it spans. The panel only reports what is typed
+(``budgetRangeChanged``); the window judges the value (with the core), keeps it and passes it
+to the analysis.
 """
 
 from __future__ import annotations
 
 from typing import Any
 
-from PySide6.QtCore import Qt, Signal
-from PySide6.QtGui import QBrush, QColor, QFont
+from PySide6.QtCore import QSize, Qt, Signal
+from PySide6.QtGui import QBrush, QColor, QFont, QShowEvent
 from PySide6.QtWidgets import (QFrame, QHBoxLayout, QHeaderView, QLabel, QScrollArea,
                                QSplitter, QTreeWidget, QTreeWidgetItem, QVBoxLayout, QWidget)
 
@@ -18,9 +23,19 @@ from .number_field import NumberField
 from .readout_format import SECTIONS, describe, format_value
 from .units import UnitSystem, field_unit, readout_unit
 
-__all__ = ["ReadoutPanel"]
+__all__ = ["ReadoutPanel", "BUDGET_RANGES"]
 
 BUDGET_SECTION = "Rate budget"
+BUDGET_RANGES: tuple[tuple[str, str, str], ...] = (
+    ("temperature_k", "Temperature range ±",
+     "Half-width of the temperature range the budget spans, about the site's temperature"),
+    ("pressure_hpa", "Pressure range ±",
+     "Half-width of the air-pressure range the budget spans, about the site's pressure"),
+    ("arc_deg", "Semi-arc range ±",
+     "Half-width of the semi-arc range the budget spans, about the working semi-arc"),
+)
+"""The budget's range entries: (key as in ``core.tuning.BudgetRanges``, label, tooltip)."""
+RANGE_ROW_PADDING_PX = 2  # a range entry's row is this much taller than the entry
 _COLUMNS = ("Figure", "Value", "Unit", "Δ baseline")
 _RIGHT = Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter
 LABEL_PADDING_PX = 14  # item padding and text margins around a label, px
@@ -38,9 +53,12 @@ class ReadoutPanel(QWidget):
     -------
     trimHeightChanged(object) : the height (m below the pivot, SI) at which to quote the trim
         weight's effect, chosen by the person.
+    budgetRangeChanged(str, float) : a budget half-width typed or stepped: its key (as in
+        ``core.tuning.BudgetRanges``) and value (K, hPa or degrees).
     """
 
     trimHeightChanged = Signal(object)
+    budgetRangeChanged = Signal(str, float)
 
     def __init__(self, system: UnitSystem = UnitSystem.METRIC,
                  parent: QWidget | None = None) -> None:
@@ -51,6 +69,9 @@ class ReadoutPanel(QWidget):
         self._baseline: Any = None
         self._items: dict[str, tuple[QTreeWidgetItem, str, str]] = {}
         self._budget_items: list[QTreeWidgetItem] = []
+        self.budget_fields: dict[str, NumberField] = {}
+        self._range_items: dict[str, QTreeWidgetItem] = {}
+        self._budget_labels: list[str] = []
         self._notes_shown: tuple[Any, ...] = ()
         self._own_min_width: int | None = None
         layout = self._layout = QVBoxLayout(self)
@@ -70,7 +91,7 @@ class ReadoutPanel(QWidget):
         self.splitter = QSplitter(Qt.Orientation.Vertical)
         self.splitter.setChildrenCollapsible(False)
         self.tree = self._build_tree()
-        self.splitter.addWidget(self.tree)
+        self.splitter.addWidget(self._build_figures())
         self.splitter.addWidget(self._build_notes())
         self.splitter.setStretchFactor(0, 3)
         self.splitter.setStretchFactor(1, 1)
@@ -98,13 +119,32 @@ class ReadoutPanel(QWidget):
         row.addWidget(below)
         return row
 
+    def _build_figures(self) -> QWidget:
+        """The tree, and under it why a budget range was refused (beside the budget, the
+        tree's last section)."""
+        pane = QWidget()
+        column = QVBoxLayout(pane)
+        column.setContentsMargins(0, 0, 0, 0)
+        column.setSpacing(3)
+        column.addWidget(self.tree, 1)
+        self.budget_problem = QLabel()
+        self.budget_problem.setProperty("role", "problem")
+        self.budget_problem.setWordWrap(True)
+        self.budget_problem.setVisible(False)
+        self.budget_problem.setTextInteractionFlags(
+            Qt.TextInteractionFlag.TextSelectableByMouse)
+        column.addWidget(self.budget_problem)
+        return pane
+
     def _build_tree(self) -> QTreeWidget:
         tree = QTreeWidget()
         tree.setColumnCount(len(_COLUMNS))
         tree.setHeaderLabels(list(_COLUMNS))
         tree.setRootIsDecorated(False)
         tree.setAlternatingRowColors(True)
-        tree.setUniformRowHeights(True)
+        # Rows are as tall as their text, the budget's range rows as tall as an entry; new
+        # texts do not measure rows again (see ``_write_cells``).
+        tree.setUniformRowHeights(False)
         tree.setIndentation(0)
         tree.setSelectionMode(QTreeWidget.SelectionMode.SingleSelection)
         header = tree.header()
@@ -134,26 +174,70 @@ class ReadoutPanel(QWidget):
                 self._items[key] = (item, unit, fmt)
                 labels.append(label)
         self._budget_head = self._section_item(tree, BUDGET_SECTION, bold, section_brush)
+        labels.append(BUDGET_SECTION)
+        for key, label, tip in BUDGET_RANGES:
+            labels.append(label)
+            self._add_range_entry(tree, key, label, tip)
         tree.expandAll()
         tree.setColumnHidden(3, True)
-        # The label column fits the longest label, measured once here (the labels never
+        # The label column fits the longest label, measured once here (these labels never
         # change; measuring on every update was what made live drags slow): the tree may not
-        # be squeezed narrower than that plus the other columns on view.
+        # be squeezed narrower than that plus the other columns on view. The budget's lines
+        # carry their ranges and are measured when their text changes (a new range or unit).
         self._label_width = (max(metrics.horizontalAdvance(text) for text in labels)
                              + LABEL_PADDING_PX)
+        self._budget_label_width = 0
         self._tree_extra = tree.verticalScrollBar().sizeHint().width() + 2 * tree.frameWidth()
         tree.setMinimumWidth(self._tree_width(tree, delta=False))
         return tree
+
+    def _add_range_entry(self, tree: QTreeWidget, key: str, label: str, tip: str) -> None:
+        """A row of the budget section holding the entry of one range's half-width (in the
+        Value column, its unit beside it)."""
+        field = NumberField(field_unit(f"budget.{key}", self._system))
+        field.setAccessibleName(f"budget.{key}")
+        field.setToolTip(tip)
+        field.changing.connect(lambda si, k=key: self._on_range_edited(k, si))
+        field.changed.connect(lambda si, _stepping, k=key: self._on_range_edited(k, si))
+        field.problemChanged.connect(lambda _text: self._show_range_problems())
+        item = QTreeWidgetItem(self._budget_head, [label, "", field.unit().text, ""])
+        item.setFlags(Qt.ItemFlag.ItemIsEnabled)
+        item.setToolTip(0, f"{tip}.")
+        tree.setItemWidget(item, 1, field)
+        self.budget_fields[key] = field
+        self._range_items[key] = item
+        self._fit_range_row(key)
+
+    def _fit_range_row(self, key: str) -> None:
+        """Make a range entry's row as tall as the entry (styled as it will be drawn)."""
+        field = self.budget_fields[key]
+        field.ensurePolished()
+        height = field.sizeHint().height() + RANGE_ROW_PADDING_PX
+        item = self._range_items[key]
+        if item.sizeHint(1).height() != height:
+            item.setSizeHint(1, QSize(field.minimumSizeHint().width(), height))
+
+    def showEvent(self, event: QShowEvent) -> None:  # noqa: N802 (Qt name)
+        """The entries have their final style once shown: fit their rows to it."""
+        for key in self._range_items:
+            self._fit_range_row(key)
+        super().showEvent(event)
 
     def _tree_width(self, tree: QTreeWidget, delta: bool) -> int:
         """Least tree width that shows every label whole, px."""
         header = tree.header()
         columns = (1, 2, 3) if delta else (1, 2)
-        return self._label_width + sum(header.sectionSize(c) for c in columns) + self._tree_extra
+        label = max(self._label_width, self._budget_label_width)
+        return label + sum(header.sectionSize(c) for c in columns) + self._tree_extra
 
     def _show_delta_column(self, show: bool) -> None:
         """Show or hide the Δ baseline column; the panel widens to keep the labels whole."""
         self.tree.setColumnHidden(3, not show)
+        self._fit_least_width()
+
+    def _fit_least_width(self) -> None:
+        """The panel's least width: whole labels and the columns on view."""
+        show = not self.tree.isColumnHidden(3)
         if self._own_min_width is None:
             self._own_min_width = self.minimumWidth()  # what the window asked for
         self.tree.setMinimumWidth(self._tree_width(self.tree, delta=show))
@@ -211,6 +295,9 @@ class ReadoutPanel(QWidget):
         self._system = system
         self.trim_field.set_unit(field_unit("trim_height_m", system))
         self.trim_unit.setText(self.trim_field.unit().text)
+        for key, field in self.budget_fields.items():
+            field.set_unit(field_unit(f"budget.{key}", system))
+            _set_text(self._range_items[key], 2, field.unit().text)
         if self._result is not None:
             self.show_result(self._result, self._baseline)
 
@@ -221,12 +308,15 @@ class ReadoutPanel(QWidget):
         base = baseline.report_dict() if baseline is not None else None
         if self._own_min_width is None or self.tree.isColumnHidden(3) != (base is None):
             self._show_delta_column(base is not None)
+        cells: list[tuple[QTreeWidgetItem, int, str]] = []
         for key, (item, unit, fmt) in self._items.items():
             shown = readout_unit(unit, self._system)
-            _set_text(item, 1, format_value(_convert(report.get(key), shown), fmt))
-            _set_text(item, 2, shown.text)
-            _set_text(item, 3, "" if base is None else _delta(report.get(key), base.get(key),
-                                                              shown.scale, fmt))
+            cells.append((item, 1, format_value(_convert(report.get(key), shown), fmt)))
+            cells.append((item, 2, shown.text))
+            cells.append((item, 3, "" if base is None else _delta(report.get(key),
+                                                                  base.get(key), shown.scale,
+                                                                  fmt)))
+        _write_cells(self.tree, cells)
         self._show_budget(result)
         self._show_notes(result)
         if not self.trim_field.hasFocus():
@@ -236,11 +326,16 @@ class ReadoutPanel(QWidget):
     def _show_budget(self, result: Any) -> None:
         rows: list[tuple[str, str, str]] = []
         tips: list[str] = []
+        site = result.design.site
+        nominal = {"°C": site.temperature_c, "hPa": site.pressure_hpa,
+                   "°": result.amplitude_deg}  # what each range is taken about, by its unit
         for line in result.budget.lines:
             unit = readout_unit(line.unit, self._system)
             low, high = unit.convert(line.low), unit.convert(line.high)
+            centre = nominal.get(line.unit)
+            shown = _range_text(low, high, None if centre is None else unit.convert(centre))
             gap = "" if unit.text == "°" else " "
-            rows.append((f"{line.cause} {_range_text(low, high)}{gap}{unit.text}",
+            rows.append((f"{line.cause} {shown}{gap}{unit.text}",
                          f"{line.spread_s_per_day:+.2f}", "s/day"))
             tips.append(f"{line.cause} from {low:.6g} to {high:.6g} {unit.text}: rate "
                         f"{line.rate_at_low_s_per_day:+.2f} s/day at the low end, "
@@ -252,6 +347,7 @@ class ReadoutPanel(QWidget):
                      "s/day"))
         tips.append("Square root of the sum of the squared spreads: the causes taken as "
                     "independent of each other")
+        self._fit_budget_labels([label for label, _value, _unit in rows])
         while len(self._budget_items) < len(rows):
             item = QTreeWidgetItem(self._budget_head, ["", "", "", ""])
             item.setTextAlignment(1, _RIGHT)
@@ -262,13 +358,24 @@ class ReadoutPanel(QWidget):
                 item.setHidden(hidden)
             if hidden:
                 continue
-            for column, text in enumerate(rows[i]):
-                _set_text(item, column, text)
+            _write_cells(self.tree, [(item, column, text) for column, text in enumerate(rows[i])])
             if _TIPS.get(id(item)) != tips[i]:
                 _TIPS[id(item)] = tips[i]
                 item.setToolTip(0, tips[i])
         if not self._budget_head.isExpanded():
             self._budget_head.setExpanded(True)
+
+    def _fit_budget_labels(self, labels: list[str]) -> None:
+        """Widen the label column when a budget line's label (range and unit) needs it; the
+        labels are measured only when they change."""
+        if labels == self._budget_labels:
+            return
+        self._budget_labels = labels
+        metrics = self.tree.fontMetrics()
+        width = max(metrics.horizontalAdvance(text) for text in labels) + LABEL_PADDING_PX
+        if width != self._budget_label_width:
+            self._budget_label_width = width
+            self._fit_least_width()
 
     def _show_notes(self, result: Any) -> None:
         if (result.warnings, result.cautions) == self._notes_shown:
@@ -290,6 +397,35 @@ class ReadoutPanel(QWidget):
         self.trim_problem.setText(message)
         self.trim_problem.setVisible(bool(message))
 
+    def set_budget_ranges(self, ranges: Any) -> None:
+        """Show the budget's half-widths in use (a ``core.tuning.BudgetRanges``); clears any
+        refusal. Emits nothing."""
+        for key, field in self.budget_fields.items():
+            field.set_value(float(getattr(ranges, key)))
+
+    def show_budget_problem(self, key: str, message: str) -> None:
+        """Mark the half-width entry ``key`` with why it was refused ("" clears)."""
+        self.budget_fields[key].set_problem(message)
+
+    def budget_problem_text(self) -> str:
+        """The refusal shown under the budget ("" when none)."""
+        return self.budget_problem.text() if self.budget_problem.isVisibleTo(self) else ""
+
+    def _show_range_problems(self) -> None:
+        """Under the tree: why a range entry is refused (typed text, or the core's reason)."""
+        message = next((f"{label.removesuffix(' ±')}: {self.budget_fields[key].problem()}"
+                        for key, label, _tip in BUDGET_RANGES
+                        if self.budget_fields[key].problem()), "")
+        if message:
+            message = message.rstrip()
+            message += ("" if message.endswith((".", "!", "?")) else ".") + \
+                " The budget still shows the last good ranges."
+        self.budget_problem.setText(message)
+        self.budget_problem.setVisible(bool(message))
+
+    def _on_range_edited(self, key: str, si: float) -> None:
+        self.budgetRangeChanged.emit(key, si)
+
     def value_text(self, key: str) -> str:
         """The shown value of figure ``key`` (as in ``Result.report_dict()``)."""
         return self._items[key][0].text(1)
@@ -303,6 +439,31 @@ _SHOWN: dict[tuple[int, int], str] = {}
 _TIPS: dict[int, str] = {}
 
 
+def _write_cells(tree: QTreeWidget, cells: list[tuple[QTreeWidgetItem, int, str]]) -> None:
+    """Set the text of one-line cells (``(item, column, text)``; unchanged ones are skipped).
+
+    The tree learns of each change by a repaint of that cell alone. Qt's own change notice
+    would also measure the row's height again (the rows are not all of one height: the
+    budget's range entries are taller), which one line of new text cannot change; on a live
+    drag that measuring is a cost paid for nothing.
+    """
+    changed: list[tuple[QTreeWidgetItem, int]] = []
+    model = tree.model()
+    blocked = model.blockSignals(True)
+    try:
+        for item, column, text in cells:
+            key = (id(item), column)
+            if _SHOWN.get(key) != text:
+                _SHOWN[key] = text
+                item.setText(column, text)
+                changed.append((item, column))
+    finally:
+        model.blockSignals(blocked)
+    viewport = tree.viewport()
+    for item, column in changed:
+        viewport.update(tree.visualRect(tree.indexFromItem(item, column)))
+
+
 def _set_text(item: QTreeWidgetItem, column: int, text: str) -> None:
     """Set a cell's text only when it changes (each change costs a relayout and repaint);
     what was set is remembered here, as reading it back from Qt is slow."""
@@ -312,12 +473,13 @@ def _set_text(item: QTreeWidgetItem, column: int, text: str) -> None:
         item.setText(column, text)
 
 
-def _range_text(low: float, high: float) -> str:
-    """A budget range shown briefly: "±5" when it is symmetric about the site's value,
-    "0–30" otherwise (the exact ends are in the row's tooltip)."""
+def _range_text(low: float, high: float, nominal: float | None) -> str:
+    """A budget range shown briefly: "±5" when it is centred on the ``nominal`` value (the
+    site's, or the working arc), "0–1063" when one end is cut short (a pressure range wider
+    than the site's pressure); the exact ends are in the row's tooltip."""
     half = 0.5 * (high - low)
     middle = 0.5 * (high + low)
-    if half > 0 and abs(middle) > 2 * half:  # a range around a nominal value
+    if nominal is not None and abs(middle - nominal) <= 1e-9 * max(1.0, abs(nominal)):
         return f"±{half:.3g}"
     return f"{low:.4g}–{high:.4g}"
 

@@ -1,4 +1,5 @@
-"""Where the window keeps what it remembers between sessions: layout, units, recent files.
+"""Where the window keeps what it remembers between sessions: layout, units, recent files,
+the rate budget's ranges (a way of looking at designs, so not kept in the design file).
 
 Settings live in an INI file under the user's configuration folder, organisation "Penduline"
 (tests point ``QSettings.setPath`` at a temporary folder so the user's file is never touched).
@@ -10,12 +11,17 @@ from pathlib import Path
 
 from PySide6.QtCore import QSettings
 
-__all__ = ["ORGANISATION", "APPLICATION", "MAX_RECENT", "app_settings", "recent_files",
-           "add_recent_file"]
+from core import DesignError
+from core.tuning import BudgetRanges, budget_ranges
+
+__all__ = ["ORGANISATION", "APPLICATION", "MAX_RECENT", "BUDGET_KEYS", "app_settings",
+           "recent_files", "add_recent_file", "stored_budget_ranges", "store_budget_ranges"]
 
 ORGANISATION = "Penduline"
 APPLICATION = "Penduline"
 MAX_RECENT = 8
+BUDGET_KEYS = ("temperature_k", "pressure_hpa", "arc_deg")
+"""The rate budget's half-widths, as named by ``core.tuning.BudgetRanges`` (K, hPa, °)."""
 
 
 def app_settings() -> QSettings:
@@ -40,3 +46,27 @@ def add_recent_file(path: str | Path) -> list[Path]:
     paths = paths[:MAX_RECENT]
     app_settings().setValue("files/recent", [str(p) for p in paths])
     return paths
+
+
+def stored_budget_ranges() -> BudgetRanges:
+    """The rate budget's half-widths last chosen; the core's defaults where none was kept or
+    what was kept is not usable (the core's :func:`~core.tuning.budget_ranges` judges)."""
+    settings = app_settings()
+    values = {}
+    for key in BUDGET_KEYS:
+        value = settings.value(f"budget/{key}")
+        try:
+            values[key] = float(value) if value is not None else getattr(BudgetRanges(), key)
+        except (TypeError, ValueError):
+            return BudgetRanges()
+    try:
+        return budget_ranges(**values)
+    except DesignError:
+        return BudgetRanges()
+
+
+def store_budget_ranges(ranges: BudgetRanges) -> None:
+    """Keep the rate budget's half-widths for the next session."""
+    settings = app_settings()
+    for key in BUDGET_KEYS:
+        settings.setValue(f"budget/{key}", float(getattr(ranges, key)))

@@ -2,7 +2,8 @@
 
 The design file and the core stay in SI. Only what a person types and reads is converted, here,
 by plain unit factors (no physics): lengths m ↔ in (elevation m ↔ ft), masses kg ↔ lb,
-temperatures °C ↔ °F, pressures hPa ↔ inHg.
+temperatures °C ↔ °F, temperature differences K ↔ °F (a factor, no offset), pressures
+hPa ↔ inHg.
 """
 
 from __future__ import annotations
@@ -57,6 +58,9 @@ _MASS = {UnitSystem.METRIC: FieldUnit("kg", 1.0, 0.0, 6, 0.1),
          UnitSystem.INCH_POUND: FieldUnit("lb", 1.0 / KILOGRAMS_PER_POUND, 0.0, 6, 0.25)}
 _TEMPERATURE = {UnitSystem.METRIC: FieldUnit("°C", 1.0, 0.0, 2, 1.0),
                 UnitSystem.INCH_POUND: FieldUnit("°F", 1.8, 32.0, 2, 1.0)}
+# A temperature difference (a range's half-width, ``*_k``): 1 K = 1 °C = 1.8 °F, no offset.
+_TEMPERATURE_DIFFERENCE = {UnitSystem.METRIC: FieldUnit("°C", 1.0, 0.0, 2, 1.0),
+                           UnitSystem.INCH_POUND: FieldUnit("°F", 1.8, 0.0, 2, 1.0)}
 _PRESSURE = {UnitSystem.METRIC: FieldUnit("hPa", 1.0, 0.0, 2, 1.0),
              UnitSystem.INCH_POUND: FieldUnit("inHg", 1.0 / HPA_PER_INHG, 0.0, 3, 0.05)}
 
@@ -64,6 +68,7 @@ _PRESSURE = {UnitSystem.METRIC: FieldUnit("hPa", 1.0, 0.0, 2, 1.0),
 _FIXED = {
     "latitude_deg": FieldUnit("°", decimals=5, step=1.0),
     "amplitude_deg": FieldUnit("°", decimals=4, step=0.1),
+    "arc_deg": FieldUnit("°", decimals=3, step=0.05),
     "g_m_s2": FieldUnit("m/s²", decimals=6, step=0.001),
     "stiffness_n_m_per_rad": FieldUnit("N·m/rad", decimals=6, step=0.01),
     "quality_factor": FieldUnit("", decimals=1, step=100.0),
@@ -76,7 +81,8 @@ _PITCH = {UnitSystem.METRIC: FieldUnit("m", 1.0, 0.0, 7, 0.0001),
 
 
 def field_unit(path: str, system: UnitSystem) -> FieldUnit:
-    """The display unit of the numeric design field at ``path`` (e.g. ``parts[0].length_m``)."""
+    """The display unit of the numeric field at ``path``: a design field (e.g.
+    ``parts[0].length_m``) or a readout setting (``budget.temperature_k``)."""
     key = path.rsplit(".", 1)[-1]
     if key in _FIXED:
         return _FIXED[key]
@@ -90,6 +96,8 @@ def field_unit(path: str, system: UnitSystem) -> FieldUnit:
         return _MASS[system]
     if key.endswith("_c"):
         return _TEMPERATURE[system]
+    if key.endswith("_k"):
+        return _TEMPERATURE_DIFFERENCE[system]
     if key.endswith("_hpa"):
         return _PRESSURE[system]
     return FieldUnit("")

@@ -11,7 +11,14 @@ on the plots on view and the readout), twice:
 - "Qt repaint": Qt repaints what changed, as it does on a real drag.
 
 In the same run it times ``core.analyse`` alone on the same designs, and the swing preview's
-``show_result`` for a geometry-only change. Prints plain lines.
+``show_result`` for a geometry-only change.
+
+Then, in each arrangement with the swing preview on view, the animation at true speed (1×):
+for ``ANIMATION_S`` seconds of wall time each it counts the animation frames actually painted
+(paints of the preview showing a new swing time) and the edits per second the window sustains
+while the rod length is dragged (each step followed by event processing, so frames and edits
+share the one event loop as on a real drag): with the animation stopped, playing while idle,
+and playing during the drag. Prints plain lines.
 
 Run: ``python3 benchmarks/gui_bench.py``
 """
@@ -30,6 +37,8 @@ sys.path.insert(0, str(ROOT))
 
 STEPS = 200
 ARRANGEMENTS = ("tabs", "grid")
+ANIMATION_S = 3.0  # wall time of each animation measurement, s
+DRAG_RUN = 40  # steps in one direction before the drag turns back
 EXAMPLE = ROOT / "resources" / "examples" / "workshop_regulator.pendulum.json"
 
 
@@ -38,16 +47,20 @@ def main() -> int:
     for arrangement in ARRANGEMENTS:
         bench(arrangement)
     bench_preview()
+    print()
+    for arrangement in ARRANGEMENTS:
+        bench_animation(arrangement)
     return 0
 
 
-def bench(arrangement: str) -> None:
-    """Drag the rod length through ``STEPS`` values with the plots arranged as given."""
+def _open_window(arrangement: str):  # type: ignore[no-untyped-def]
+    """The example in a shown 1440×900 window with the plots arranged as given; returns the
+    application, the window and the rod-length field."""
     from PySide6.QtWidgets import QApplication
 
     from app.main_window import MainWindow
     from app.number_field import NumberField
-    from core import analyse, load_design
+    from core import load_design
 
     app = QApplication.instance() or QApplication(sys.argv[:1])
     window = MainWindow(load_design(EXAMPLE), None, remember_layout=False)
@@ -58,6 +71,20 @@ def bench(arrangement: str) -> None:
     app.processEvents()
     field = window.design_panel.row("parts[0].length_m").editor()
     assert isinstance(field, NumberField)
+    return app, window, field
+
+
+def _close_window(window) -> None:  # type: ignore[no-untyped-def]
+    window.document.undo_stack.setClean()
+    window.confirm_discard = lambda: True
+    window.close()
+
+
+def bench(arrangement: str) -> None:
+    """Drag the rod length through ``STEPS`` values with the plots arranged as given."""
+    from core import analyse
+
+    app, window, field = _open_window(arrangement)
 
     def drag(steps: int, full_repaint: bool) -> float:
         started = time.perf_counter()
@@ -94,9 +121,94 @@ def bench(arrangement: str) -> None:
     print(f"median core.analyse: {median_analyse_ms:.2f} ms")
     print(f"update / analyse ratio (full repaint): {full_ms / median_analyse_ms:.1f}")
     print()
-    window.document.undo_stack.setClean()
-    window.confirm_discard = lambda: True  # type: ignore[method-assign]
-    window.close()
+    _close_window(window)
+
+
+class _FrameCounter:
+    """Counts the paints of a swing preview that show a new swing time (animation frames
+    actually drawn), by watching its viewport's paint events."""
+
+    def __init__(self, preview) -> None:  # type: ignore[no-untyped-def]
+        from PySide6.QtCore import QEvent, QObject
+
+        counter = self
+
+        class Filter(QObject):
+            def eventFilter(self, _obj, event) -> bool:  # type: ignore[no-untyped-def]  # noqa: N802
+                if event.type() == QEvent.Type.Paint:
+                    counter.seen(preview.time_s)
+                return False
+
+        self.frames = 0
+        self._last_time_s: float | None = None
+        self._filter = Filter()
+        preview.viewport().installEventFilter(self._filter)
+
+    def seen(self, time_s: float) -> None:
+        if time_s != self._last_time_s:
+            self._last_time_s = time_s
+            self.frames += 1
+
+
+def bench_animation(arrangement: str) -> None:
+    """Animation frames drawn and edits sustained, with the swing preview on view at 1×."""
+    from PySide6.QtCore import QEventLoop, QTimer
+
+    from app.preview import SwingPreview
+
+    app, window, field = _open_window(arrangement)
+    index = next(i for i, p in enumerate(window.plots) if isinstance(p, SwingPreview))
+    window.plot_area.show_plot(index)
+    app.processEvents()
+    preview = window.plots[index]
+    assert isinstance(preview, SwingPreview) and preview.isVisible()
+    preview.set_speed(1.0)
+    counter = _FrameCounter(preview)
+
+    def idle() -> tuple[float, float]:
+        """(frames/s, edits/s) over ANIMATION_S of the event loop left to itself."""
+        loop = QEventLoop()
+        QTimer.singleShot(int(ANIMATION_S * 1000), loop.quit)
+        frames0, started = counter.frames, time.perf_counter()
+        loop.exec()
+        wall = time.perf_counter() - started
+        return (counter.frames - frames0) / wall, 0.0
+
+    def drag() -> tuple[float, float]:
+        """(frames/s, edits/s) over ANIMATION_S of stepping the rod length, processing the
+        events after each step."""
+        frames0, computes0 = counter.frames, window.compute_count
+        steps = 0
+        started = time.perf_counter()
+        while time.perf_counter() - started < ANIMATION_S:
+            field.stepBy(1 if (steps // DRAG_RUN) % 2 == 0 else -1)
+            app.processEvents()
+            steps += 1
+        wall = time.perf_counter() - started
+        field.finish_steps()
+        app.processEvents()
+        assert window.compute_count - computes0 >= steps - 1  # every edit was shown
+        return (counter.frames - frames0) / wall, steps / wall
+
+    drag()  # warm up: imports, caches, first paints
+    preview.set_playing(False)
+    preview.set_time(0.0)
+    still_fps, still_edits = drag()
+    preview.set_playing(True)
+    idle_fps, _ = idle()
+    play_fps, play_edits = drag()
+    preview.set_playing(False)
+
+    print(f"animation at 1x, arrangement: {arrangement} (window 1440x900, swing preview on "
+          f"view), {ANIMATION_S:.0f} s of wall time each")
+    print(f"animation stopped, dragging: {still_edits:.1f} edits/s, "
+          f"{still_fps:.1f} animation frames/s drawn")
+    print(f"animation playing, idle: {idle_fps:.1f} animation frames/s drawn")
+    print(f"animation playing, dragging: {play_edits:.1f} edits/s, "
+          f"{play_fps:.1f} animation frames/s drawn")
+    print(f"edits/s kept while the animation plays: {100.0 * play_edits / still_edits:.0f} %")
+    print()
+    _close_window(window)
 
 
 def bench_preview() -> None:

@@ -20,6 +20,7 @@ from app.readout_format import format_value
 from app.settings import app_settings, recent_files
 from app.units import UnitSystem
 from core import analyse, load_design, with_value
+from core.tuning import BudgetRanges
 
 PNG_SIGNATURE = b"\x89PNG\r\n\x1a\n"
 
@@ -128,6 +129,117 @@ class TestBadInput:
         type_into(qtbot, field(window, "parts[2].mount.centre_m"), "3")
         assert "does not reach" in panel.row("parts[2].mount.centre_m").problem()
         assert window.document.design.parts[2].mount.kind == "clamp"
+
+
+def budget_rows(window: MainWindow) -> list[tuple[str, str]]:
+    """The rate budget's lines as shown: (label, value) of each."""
+    return [(item.text(0), item.text(1)) for item in window.readout._budget_items
+            if not item.isHidden()]
+
+
+class TestBudgetRanges:
+    """The rate budget's half-widths: typed in the readout, judged by the core, passed to
+    ``core.analyse``, kept in the settings and not in the design file."""
+
+    def test_a_temperature_range_of_10_k_gives_the_core_budget_for_it(
+            self, window: MainWindow, qtbot) -> None:  # type: ignore[no-untyped-def]
+        # Example site 20 °C; default ranges ±5 K, ±30 hPa, ±0.1°.
+        default_line = window.result.budget.lines[0]
+        assert budget_rows(window)[0] == ("Temperature ±5 °C",
+                                          f"{default_line.spread_s_per_day:+.2f}")
+        type_into(qtbot, window.readout.budget_fields["temperature_k"], "10")
+        qtbot.waitUntil(lambda: window.result.budget.lines[0].high == 30.0)
+        expected = analyse(window.document.design,
+                           budget_ranges=BudgetRanges(temperature_k=10.0)).budget
+        line = window.result.budget.lines[0]
+        assert (line.low, line.high) == (10.0, 30.0)
+        assert line == expected.lines[0]  # the same computation: equal to the last bit
+        assert window.result.budget.lines[1:] == expected.lines[1:]  # the others untouched
+        assert budget_rows(window)[0] == ("Temperature ±10 °C",
+                                          f"{expected.lines[0].spread_s_per_day:+.2f}")
+        assert budget_rows(window)[3] == ("Worst case (sum)",
+                                          f"{expected.worst_case_s_per_day:.2f}")
+        # A range twice as wide spreads the rate (nearly linear in temperature) about twice
+        # as far: the line really changed.
+        assert line.spread_s_per_day == pytest.approx(2 * default_line.spread_s_per_day,
+                                                      rel=5e-3)
+        assert window.budget_ranges() == BudgetRanges(temperature_k=10.0)
+        assert not window.document.is_dirty  # not part of the design
+
+    def test_ranges_are_kept_in_the_settings_for_the_next_window(
+            self, window: MainWindow, qtbot) -> None:  # type: ignore[no-untyped-def]
+        type_into(qtbot, window.readout.budget_fields["pressure_hpa"], "50")
+        type_into(qtbot, window.readout.budget_fields["arc_deg"], "0.25")
+        assert float(app_settings().value("budget/pressure_hpa")) == 50.0
+        assert float(app_settings().value("budget/arc_deg")) == 0.25
+        later = MainWindow(window.document.design)
+        qtbot.addWidget(later)
+        later.compute_now()
+        assert later.budget_ranges() == BudgetRanges(pressure_hpa=50.0, arc_deg=0.25)
+        assert later.readout.budget_fields["pressure_hpa"].text() == "50"
+        line = later.result.budget.lines[1]
+        site = later.document.design.site.pressure_hpa
+        assert (line.low, line.high) == (site - 50.0, site + 50.0)
+        later.document.undo_stack.setClean()
+
+    def test_unusable_stored_ranges_fall_back_to_the_defaults(self, window: MainWindow,
+                                                              qtbot) -> None:  # type: ignore[no-untyped-def]
+        app_settings().setValue("budget/temperature_k", "warm")
+        later = MainWindow(window.document.design)
+        qtbot.addWidget(later)
+        assert later.budget_ranges() == BudgetRanges()
+        app_settings().setValue("budget/temperature_k", -3.0)
+        again = MainWindow(window.document.design)
+        qtbot.addWidget(again)
+        assert again.budget_ranges() == BudgetRanges()
+
+    @pytest.mark.parametrize("key, text, words", [
+        ("temperature_k", "-2", "out of range"),
+        ("pressure_hpa", "nan", "not a finite number"),
+        ("arc_deg", "wide", "is not a number"),
+        ("arc_deg", "95", "out of range"),
+    ])
+    def test_a_refused_range_is_marked_and_the_last_result_kept(
+            self, window: MainWindow, qtbot, key: str, text: str, words: str) -> None:  # type: ignore[no-untyped-def]
+        before, count = window.result, window.compute_count
+        rows = budget_rows(window)
+        entry = window.readout.budget_fields[key]
+        type_into(qtbot, entry, text)
+        window.compute_now()
+        assert entry.property("invalid") is True
+        assert words in entry.problem()
+        sentence = window.readout.budget_problem_text()
+        assert words in sentence and sentence.endswith("the last good ranges.")
+        assert window.result is before and window.compute_count == count
+        assert window.budget_ranges() == BudgetRanges()
+        assert budget_rows(window) == rows
+        type_into(qtbot, entry, "0")  # a good value clears the mark
+        assert entry.problem() == "" and window.readout.budget_problem_text() == ""
+        assert getattr(window.budget_ranges(), key) == 0.0
+
+    def test_inch_pound_shows_fahrenheit_and_inches_of_mercury(
+            self, window: MainWindow, qtbot) -> None:  # type: ignore[no-untyped-def]
+        window.set_unit_system(UnitSystem.INCH_POUND)
+        fields = window.readout.budget_fields
+        assert fields["temperature_k"].unit().text == "°F"
+        assert fields["temperature_k"].text() == "9"  # 5 K = 9 °F (a difference: no offset)
+        assert fields["pressure_hpa"].text() == "0.886"  # 30 hPa = 0.886 inHg
+        assert window.readout._range_items["pressure_hpa"].text(2) == "inHg"
+        type_into(qtbot, fields["temperature_k"], "18")  # 18 °F = 10 K
+        qtbot.waitUntil(lambda: window.result.budget.lines[0].high == pytest.approx(30.0))
+        assert window.budget_ranges().temperature_k == pytest.approx(10.0, rel=1e-12)
+        assert window.budget_ranges().pressure_hpa == 30.0  # untouched by the conversion
+        assert budget_rows(window)[0][0] == "Temperature ±18 °F"
+
+    def test_stepping_a_range_recomputes_live(self, window: MainWindow, qtbot) -> None:  # type: ignore[no-untyped-def]
+        arc = window.readout.budget_fields["arc_deg"]
+        arc.stepBy(2)  # 0.1° + 2 × 0.05°
+        qtbot.waitUntil(lambda: window.budget_ranges().arc_deg == pytest.approx(0.2))
+        window.compute_now()
+        line = window.result.budget.lines[2]
+        amp = window.document.design.swing.amplitude_deg
+        assert (line.low, line.high) == pytest.approx((amp - 0.2, amp + 0.2), abs=1e-12)
+        arc.finish_steps()
 
 
 class TestUndoRedo:

@@ -275,6 +275,150 @@ class TestAnimation:
         assert preview.time_s == stopped_at
 
 
+class FakeClock:
+    """A clock moved by hand: the animation's only source of time in the tests below."""
+
+    def __init__(self, start_s: float = 1000.0) -> None:
+        self.now = start_s
+
+    def now_s(self) -> float:
+        return self.now
+
+    def forward(self, seconds: float) -> None:
+        self.now += seconds
+
+
+def exact_angle(result, swing_time_s: float) -> float:
+    """The core's exact angle ``swing_time_s`` after release of an undamped design: its
+    sampled motion (three periods from rest at θ₀) interpolated at the time modulo the
+    period."""
+    m = result.motion
+    return float(np.interp(math.fmod(swing_time_s, result.period_s), m.time_s, m.angle_rad))
+
+
+class TestTrueSpeed:
+    """The animation clock runs at true speed: the pose drawn after t seconds of (fake) wall
+    time is the exact pose at speed × t, however the frames fall."""
+
+    @pytest.fixture
+    def clock(self) -> FakeClock:
+        return FakeClock()
+
+    @pytest.fixture
+    def timed(self, qtbot, clock):
+        view = SwingPreview(clock=clock)
+        qtbot.addWidget(view)
+        view.resize(800, 520)
+        yield view
+        view.set_playing(False)
+
+    @pytest.fixture(scope="class")
+    def undamped(self, regulator):
+        result = analyse(with_value(regulator.design, "swing.quality_factor", None))
+        assert result.period_s == pytest.approx(2.0, abs=1e-3)  # a seconds pendulum
+        return result
+
+    @pytest.mark.parametrize("speed", [1.0, 0.5])
+    @pytest.mark.parametrize("wall_s", [0.37, 1.0, 2.9, 61.3])
+    def test_pose_after_t_is_the_exact_pose_at_speed_times_t(self, timed, clock, undamped,
+                                                             speed, wall_s):
+        timed.show_result(undamped)
+        timed.set_speed(speed)
+        timed.set_time(0.0)
+        timed.set_playing(True)
+        clock.forward(wall_s)
+        timed.draw_frame()
+        assert timed.time_s == pytest.approx(speed * wall_s, rel=1e-12)
+        assert timed.shown_angle_rad() == pytest.approx(exact_angle(undamped, speed * wall_s),
+                                                        abs=1e-6)
+
+    def test_half_a_period_of_wall_time_swings_to_the_other_side(self, timed, clock,
+                                                                 undamped):
+        theta0 = math.radians(undamped.amplitude_deg)
+        timed.show_result(undamped)
+        timed.set_time(0.0)
+        timed.set_playing(True)
+        clock.forward(0.5 * undamped.period_s)
+        timed.draw_frame()
+        assert timed.shown_angle_rad() == pytest.approx(-theta0, abs=1e-6)
+        timed.set_speed(0.5)  # at ½× the next half period of wall time is a quarter swing
+        clock.forward(0.5 * undamped.period_s)
+        timed.draw_frame()
+        assert timed.shown_angle_rad() == pytest.approx(0.0, abs=1e-6)
+
+    def test_late_frames_and_a_stall_do_not_slow_the_swing(self, timed, clock, undamped):
+        timed.show_result(undamped)
+        timed.set_time(0.0)
+        timed.set_playing(True)
+        wall = 0.0
+        # Frames late and uneven (a busy event loop), then a 0.9 s stall (a long drag step).
+        for step in [0.016, 0.021, 0.048, 0.9, 0.016, 0.033, 0.250, 0.017]:
+            clock.forward(step)
+            wall += step
+            timed.draw_frame()
+            assert timed.time_s == pytest.approx(wall, rel=1e-12)
+            assert timed.shown_angle_rad() == pytest.approx(exact_angle(undamped, wall),
+                                                            abs=1e-6)
+
+    def test_a_change_of_speed_keeps_the_time_already_swung(self, timed, clock, undamped):
+        timed.show_result(undamped)
+        timed.set_time(0.0)
+        timed.set_playing(True)
+        clock.forward(1.3)  # 1.3 s at 1×, then 2 s at ½×: 2.3 s of swing
+        timed.set_speed(0.5)
+        clock.forward(2.0)
+        timed.draw_frame()
+        assert timed.time_s == pytest.approx(2.3, rel=1e-12)
+        assert timed.shown_angle_rad() == pytest.approx(exact_angle(undamped, 2.3), abs=1e-6)
+
+    def test_paused_and_hidden_time_does_not_count(self, timed, clock, undamped):
+        timed.setAttribute(QtCore.Qt.WidgetAttribute.WA_DontShowOnScreen, True)
+        timed.show()
+        timed.show_result(undamped)
+        timed.set_time(0.0)
+        timed.set_playing(True)
+        clock.forward(0.4)
+        timed.set_playing(False)  # paused where the swing is at 0.4 s
+        assert timed.shown_angle_rad() == pytest.approx(exact_angle(undamped, 0.4), abs=1e-6)
+        clock.forward(5.0)
+        timed.draw_frame()
+        assert timed.time_s == pytest.approx(0.4, rel=1e-12)
+        timed.set_playing(True)
+        clock.forward(0.25)
+        timed.hide()  # another tab chosen: the swing holds at 0.65 s
+        clock.forward(7.0)
+        timed.set_speed(0.5)  # changed while hidden: still no time passes
+        timed.set_speed(1.0)
+        timed.show()
+        clock.forward(0.1)
+        timed.draw_frame()
+        assert timed.time_s == pytest.approx(0.75, rel=1e-12)
+        assert timed.shown_angle_rad() == pytest.approx(exact_angle(undamped, 0.75), abs=1e-6)
+
+    def test_the_frame_timer_poses_from_the_clock(self, qtbot, timed, clock, undamped):
+        timed.show_result(undamped)
+        timed.set_time(0.0)
+        timed.set_playing(True)
+        clock.forward(1.234)
+        qtbot.waitUntil(lambda: abs(timed.time_s - 1.234) < 1e-9, timeout=5000)  # next frame
+        assert timed.shown_angle_rad() == pytest.approx(exact_angle(undamped, 1.234),
+                                                        abs=1e-6)
+
+    def test_a_damped_swing_plays_its_sampled_motion_at_true_speed(self, timed, clock,
+                                                                   atrium):
+        m = atrium.motion  # Q given: no repetition within the sampled span
+        timed.show_result(atrium)
+        timed.set_time(0.0)
+        timed.set_playing(True)
+        wall = 0.0
+        for wall_s in (3.1, 9.7, 0.5 * float(m.time_s[-1])):
+            clock.forward(wall_s - wall)
+            wall = wall_s
+            timed.draw_frame()
+            assert timed.shown_angle_rad() == pytest.approx(
+                float(np.interp(wall_s, m.time_s, m.angle_rad)), abs=1e-6)
+
+
 class TestClearanceAndCaution:
     def test_clearance_line(self, preview, atrium):
         preview.show_result(atrium)
@@ -328,3 +472,19 @@ def test_design_round_trip_of_the_atrium_example():
     # The exhibit example is a valid format-1 file and keeps its values through a round trip.
     design = load_design(EXAMPLES / "atrium_pendulum.pendulum.json")
     assert design_from_dict(design_to_dict(design)) == design
+
+
+def test_window_preview_has_play_and_speed_controls(window, qtbot) -> None:  # type: ignore[no-untyped-def]
+    """A newcomer finds play/pause and speed on the preview itself, not only in its menu."""
+    window.show()
+    window.plot_area.show_plot(3)
+    preview = window.plots[3]
+    qtbot.waitExposed(preview)
+    controls = preview.controls
+    assert controls.isVisible() and controls.geometry().top() == 0
+    controls.speed_box.setCurrentIndex(controls.speed_box.findData(0.5))
+    assert preview.speed == 0.5
+    controls.play_button.setChecked(True)
+    assert preview.is_playing()
+    controls.play_button.setChecked(False)
+    assert not preview.is_playing()

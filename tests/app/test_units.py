@@ -31,3 +31,12 @@ def test_readout_units_convert_only_in_inch_pound() -> None:
     assert readout_unit("N", UnitSystem.INCH_POUND).text == "lbf"
     assert readout_unit("s/day/K", UnitSystem.INCH_POUND).convert(1.8) == pytest.approx(1.0)
     assert readout_unit("s/day", UnitSystem.INCH_POUND).text == "s/day"
+
+
+def test_a_temperature_difference_converts_without_the_offset() -> None:
+    # A budget half-width of 10 K is 18 °F wide (1 K = 1.8 °F), not 50 °F.
+    u = field_unit("budget.temperature_k", UnitSystem.INCH_POUND)
+    assert (u.text, u.to_display(10.0), u.to_si(18.0)) == ("°F", 18.0, 10.0)
+    assert field_unit("budget.temperature_k", UnitSystem.METRIC).to_display(10.0) == 10.0
+    assert field_unit("budget.pressure_hpa", UnitSystem.INCH_POUND).text == "inHg"
+    assert field_unit("budget.arc_deg", UnitSystem.INCH_POUND).text == "°"
