@@ -107,6 +107,12 @@ class _Reader:
             return default
         return check_number(self.at(key), value)
 
+    def req(self, key: str) -> float:
+        """A required number (refused when missing, null or out of range)."""
+        value = self.number(key)
+        assert value is not None
+        return value
+
     def text(self, key: str, required: bool = True, default: str = "") -> str:
         value = self.raw(key, required)
         if value is None:
@@ -201,16 +207,16 @@ def _material(r: _Reader) -> str:
 
 
 def _parse_rod(r: _Reader) -> Rod:
-    return Rod(name=r.text("name"), material=_material(r), top_m=r.number("top_m"),
-               length_m=r.number("length_m"), diameter_m=r.number("diameter_m"),
-               mass_kg=r.number("mass_kg", False, None, nullable=True))  # type: ignore[arg-type]
+    return Rod(name=r.text("name"), material=_material(r), top_m=r.req("top_m"),
+               length_m=r.req("length_m"), diameter_m=r.req("diameter_m"),
+               mass_kg=r.number("mass_kg", False, None, nullable=True))
 
 
 def _parse_sleeve(r: _Reader) -> Sleeve:
     s = Sleeve(name=r.text("name"), material=_material(r), on=r.text("on"),
-               length_m=r.number("length_m"), outer_diameter_m=r.number("outer_diameter_m"),
-               inner_diameter_m=r.number("inner_diameter_m"),
-               mass_kg=r.number("mass_kg", False, None, nullable=True))  # type: ignore[arg-type]
+               length_m=r.req("length_m"), outer_diameter_m=r.req("outer_diameter_m"),
+               inner_diameter_m=r.req("inner_diameter_m"),
+               mass_kg=r.number("mass_kg", False, None, nullable=True))
     if s.inner_diameter_m >= s.outer_diameter_m:
         raise DesignError(r.at("inner_diameter_m"),
                           f"inner diameter {s.inner_diameter_m:g} m must be smaller than the "
@@ -239,10 +245,11 @@ def _parse_bob(r: _Reader) -> Bob:
     shape = r.choice("shape", BOB_SHAPES)
     mount_reader = r.child("mount")
     assert mount_reader is not None
-    sizes = {key: r.number(key) for key in _BOB_SIZE_KEYS[shape]}
+    sizes = {key: r.req(key) for key in _BOB_SIZE_KEYS[shape]}
     return Bob(name=name, shape=shape, material=_material(r),  # type: ignore[arg-type]
-               mount=_parse_mount(mount_reader), diameter_m=r.number("diameter_m"),  # type: ignore[arg-type]
-               mass_kg=r.number("mass_kg", False, None, nullable=True), **sizes)
+               mount=_parse_mount(mount_reader), diameter_m=r.req("diameter_m"),
+               mass_kg=r.number("mass_kg", False, None, nullable=True),
+               thickness_m=sizes.get("thickness_m"), height_m=sizes.get("height_m"))
 
 
 def _parse_weight(r: _Reader) -> Weight:

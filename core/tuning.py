@@ -97,6 +97,20 @@ def _nut_bodies(design: Design, state: PendulumState) -> list[Body]:
     return [by_name[bob.mount.on], main]
 
 
+def _period_with(design: Design, condition: str, value: float) -> float:
+    """Exact period, s, with one site condition (``temperature_c``, ``pressure_hpa``,
+    ``elevation_m`` or ``amplitude_deg``) set to ``value``."""
+    if condition == "temperature_c":
+        return pendulum_state(design, slopes=False, temperature_c=value).period_s
+    if condition == "pressure_hpa":
+        return pendulum_state(design, slopes=False, pressure_hpa=value).period_s
+    if condition == "elevation_m":
+        return pendulum_state(design, slopes=False, elevation_m=value).period_s
+    if condition == "amplitude_deg":
+        return pendulum_state(design, slopes=False, amplitude_deg=value).period_s
+    raise ValueError(f"{condition!r} is not a site condition")
+
+
 def _centred(design: Design, state: PendulumState, key: str, value: float, step: float,
              lowest: float | None = None) -> float:
     """(rate(value + step/2) − rate(value − step/2)) of the full model, s/day per ``step``."""
@@ -105,8 +119,7 @@ def _centred(design: Design, state: PendulumState, key: str, value: float, step:
         lo, hi = lowest, lowest + step
     # Against the state's own period when there is no target: a clock's change of rate.
     target = state.target_period_s or state.period_s
-    lo_t = pendulum_state(design, slopes=False, **{key: lo}).period_s
-    hi_t = pendulum_state(design, slopes=False, **{key: hi}).period_s
+    lo_t, hi_t = _period_with(design, key, lo), _period_with(design, key, hi)
     return 86400.0 * (target / hi_t - target / lo_t)
 
 
@@ -219,8 +232,8 @@ def rate_budget(design: Design, state: PendulumState,
     amp = design.swing.amplitude_deg
 
     def line(cause: str, unit: str, key: str, low: float, high: float) -> BudgetLine:
-        r_lo = 86400.0 * (target / pendulum_state(design, slopes=False, **{key: low}).period_s - 1.0)
-        r_hi = 86400.0 * (target / pendulum_state(design, slopes=False, **{key: high}).period_s - 1.0)
+        r_lo = 86400.0 * (target / _period_with(design, key, low) - 1.0)
+        r_hi = 86400.0 * (target / _period_with(design, key, high) - 1.0)
         return BudgetLine(cause, unit, low, high, r_lo, r_hi)
 
     t, p = site.temperature_c, site.pressure_hpa
