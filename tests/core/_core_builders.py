@@ -93,3 +93,12 @@ def point_pendulum(length_m: float, *, bob_kg: float = 1.0e4, **kw: Any) -> dict
                  "rod_material", "steel")),
              bob("sphere", diameter_m=1e-5, mass_kg=bob_kg, mount=clamp(centre_m=length_m))]
     return design(parts, **kw)
+
+
+# DESIGN §4, the keys `report --json` must carry (copied from the design brief, not the core)
+DESIGN_KEYS = ("mass_kg", "centre_of_mass_m", "inertia_pivot_kg_m2", "equivalent_length_m",
+               "centre_of_oscillation_m", "g_m_s2", "period_small_s", "period_s",
+               "beats_per_hour", "circular_error_s_per_day", "rate_s_per_day",
+               "temperature_coefficient_s_per_day_per_k",
+               "pressure_coefficient_s_per_day_per_hpa", "bob_sensitivity_s_per_day_per_mm",
+               "peak_speed_m_s", "max_pivot_load_n", "warnings")

@@ -15,7 +15,8 @@ import pytest
 
 from core import REPORT_KEYS, DesignError, analyse, design_from_dict, load_design
 
-from _core_builders import G_N, LIGHT_KG, bob, clamp, design, point_pendulum, rod
+from _core_builders import (DESIGN_KEYS, G_N, LIGHT_KG, bob, clamp, design, point_pendulum,
+                            rod)
 from _mp_reference import mp_ratio
 
 mpmath.mp.dps = 40
@@ -24,13 +25,6 @@ SECONDS_LENGTH = 0.993621385566  # m, g_n/π² — DOMAIN §3 [computed]
 EXAMPLE = str(Path(__file__).resolve().parents[2] / "resources" / "examples"
               / "workshop_regulator.pendulum.json")
 
-# DESIGN §4, the keys `report --json` must carry (copied from the design brief, not the core)
-DESIGN_KEYS = ("mass_kg", "centre_of_mass_m", "inertia_pivot_kg_m2", "equivalent_length_m",
-               "centre_of_oscillation_m", "g_m_s2", "period_small_s", "period_s",
-               "beats_per_hour", "circular_error_s_per_day", "rate_s_per_day",
-               "temperature_coefficient_s_per_day_per_k",
-               "pressure_coefficient_s_per_day_per_hpa", "bob_sensitivity_s_per_day_per_mm",
-               "peak_speed_m_s", "max_pivot_load_n", "warnings")
 
 
 def seconds_pendulum(amplitude_deg: float) -> Any:

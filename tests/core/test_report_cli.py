@@ -14,19 +14,13 @@ from typing import Any
 
 import pytest
 
+from _core_builders import DESIGN_KEYS
 from app.cli import main
 from core import analyse, load_design
 
 ROOT = Path(__file__).resolve().parents[2]
 EXAMPLE = ROOT / "resources" / "examples" / "workshop_regulator.pendulum.json"
 
-# DESIGN §4, copied from the design brief
-DESIGN_KEYS = ("mass_kg", "centre_of_mass_m", "inertia_pivot_kg_m2", "equivalent_length_m",
-               "centre_of_oscillation_m", "g_m_s2", "period_small_s", "period_s",
-               "beats_per_hour", "circular_error_s_per_day", "rate_s_per_day",
-               "temperature_coefficient_s_per_day_per_k",
-               "pressure_coefficient_s_per_day_per_hpa", "bob_sensitivity_s_per_day_per_mm",
-               "peak_speed_m_s", "max_pivot_load_n", "warnings")
 
 
 def run(capsys: pytest.CaptureFixture[str], *args: str) -> tuple[int, str, str]:
