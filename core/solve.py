@@ -371,22 +371,30 @@ def _replace_message(sol: Solution, message: str) -> Solution:
 
 # ----------------------------------------------------------------------------- two fields
 
-def _solve_two(problem: _Problem) -> Solution:
-    from scipy.optimize import least_squares
-
+def _usable_box(problem: _Problem, centre: list[float]
+                ) -> tuple[list[tuple[float, float]], list[tuple[float, float]]]:
+    """Each field's whole range and the part giving usable designs, the other fields held at
+    ``centre``."""
     searched, usable = [], []
-    for k, path in enumerate(problem.paths):  # each field's usable range, the other held
-        single = _Problem(problem.source, [path], ["period"], problem.target or 1.0)
-        coarse, (lo, hi) = _coarse_grid(path, problem.old[k])
+    held = problem.design(centre)
+    for k, path in enumerate(problem.paths):
+        single = _Problem(held, [path], ["period"], problem.target or 1.0)
+        coarse, (lo, hi) = _coarse_grid(path, centre[k])
         ok = np.isfinite(_evaluate(single, coarse))
         if not ok.any():
             raise DesignError(path, f"no value from {lo:g} to {hi:g} gives a usable design")
-        xs = _fine_grid(coarse, ok, problem.old[k], lo, hi)
+        xs = _fine_grid(coarse, ok, centre[k], lo, hi)
         ok = np.isfinite(_evaluate(single, xs))
         searched.append((lo, hi))
         usable.append((float(xs[ok][0]), float(xs[ok][-1])))
-    lower = np.array([u[0] for u in usable])
-    upper = np.array([u[1] for u in usable])
+    return searched, usable
+
+
+def _solve_two(problem: _Problem) -> Solution:
+    """Both fields together (bounded least squares), the bounds re-scanned around the best
+    point while it sits on them (the usable range of one field depends on the other)."""
+    from scipy.optimize import least_squares
+
     scale = np.array([_tolerance(g) for g in problem.goals])
     penalty = 1e12
 
@@ -394,26 +402,42 @@ def _solve_two(problem: _Problem) -> Solution:
         y = problem.safe([float(v) for v in x])
         return np.full(2, penalty) if y is None else np.asarray(y) / scale
 
-    def attempt(start: FloatArray) -> tuple[float, FloatArray]:
+    def attempt(start: FloatArray, lower: FloatArray, upper: FloatArray
+                ) -> tuple[float, FloatArray]:
         start = np.clip(start, lower, upper)
         fit = least_squares(residual, start, bounds=(lower, upper), method="trf",
                             x_scale=np.maximum(np.abs(start), upper - lower) * 1e-3 + 1e-300,
                             diff_step=1e-7, ftol=1e-15, xtol=1e-15, gtol=1e-15, max_nfev=200)
         return float(np.max(np.abs(residual(fit.x)))), fit.x
 
-    starts = [np.array(problem.old)]
-    grid = [np.linspace(lower[k] + 0.1 * (upper[k] - lower[k]),
-                        upper[k] - 0.1 * (upper[k] - lower[k]), 3) for k in range(2)]
-    starts += [np.array([a, b]) for a in grid[0] for b in grid[1]]
+    centre = list(problem.old)
     best_err, best_x = math.inf, np.array(problem.old)
-    for start in starts:
-        if problem.safe([float(v) for v in np.clip(start, lower, upper)]) is None:
-            continue
-        err, x = attempt(start)
-        if err < best_err:
-            best_err, best_x = err, x
-        if best_err <= 1e-2:  # both residuals a hundredth of their tolerances
+    box: list[tuple[float, float]] = []
+    for round_ in range(6):
+        searched, usable = _usable_box(problem, centre)
+        box = usable if not box else [(min(a[0], b[0]), max(a[1], b[1]))
+                                      for a, b in zip(box, usable)]
+        lower = np.array([u[0] for u in usable])
+        upper = np.array([u[1] for u in usable])
+        starts = [np.array(centre)]
+        if round_ > 0:  # stuck: try the corners' inside too
+            grid = [np.linspace(lower[k] + 0.1 * (upper[k] - lower[k]),
+                                upper[k] - 0.1 * (upper[k] - lower[k]), 3) for k in range(2)]
+            starts += [np.array([a, b]) for a in grid[0] for b in grid[1]]
+        for start in starts:
+            if problem.safe([float(v) for v in np.clip(start, lower, upper)]) is None:
+                continue
+            err, x = attempt(start, lower, upper)
+            if err < best_err:
+                best_err, best_x = err, x
+            if best_err <= 1e-2:  # both residuals a hundredth of their tolerances
+                break
+        on_bound = np.any(np.isclose(best_x, lower, rtol=1e-6, atol=0)
+                          | np.isclose(best_x, upper, rtol=1e-6, atol=0))
+        if best_err <= 1e-2 or not on_bound or list(best_x) == centre:
             break
+        centre = [float(v) for v in best_x]
+    usable = box
     if not math.isfinite(best_err) or problem.safe([float(v) for v in best_x]) is None:
         raise DesignError(problem.paths[0], "no pair of values in the usable ranges gives a "
                                             "usable design")
