@@ -1,4 +1,4 @@
-"""A suspension spring from its blades: stiffness and pivot under the pendulum's weight, clamp stress.
+"""A suspension spring from its blades: stiffness and pivot under the weight, clamp stress.
 
 Each blade is a thin strip in bending under tension (a beam-column): with w(s) its sideways
 deflection, s down from the clamp, E I w'''' − T w'' = 0, I = b t³/12 (width b across the

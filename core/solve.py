@@ -20,240 +20,26 @@ never a silent wrong answer.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field
-
-from typing import Any
 
 import numpy as np
 from numpy.typing import NDArray
 
 from .design import Design
 from .errors import DesignError, guarded
-from .fileformat import check_number, design_from_dict, design_to_dict, field_range, get_value
-from .model import SECONDS_PER_DAY, pendulum_state
+from .fileformat import field_range
+from .solve_targets import (PERIOD_TOLERANCE_S, TEMPERATURE_TOLERANCE_S_PER_DAY_PER_K, Solution,
+                            Targets, VariedDesign, goal_words, temperature_coefficient,
+                            tolerance, with_message)
 from .sweep import SweepTable, shift_pivot, sweep_field
 
-__all__ = ["Targets", "Solution", "solve", "solve_field", "PERIOD_TOLERANCE_S",
-           "TEMPERATURE_TOLERANCE_S_PER_DAY_PER_K", "SweepTable", "sweep_field", "shift_pivot"]
+__all__ = ["Targets", "Solution", "solve", "solve_field", "temperature_coefficient",
+           "PERIOD_TOLERANCE_S", "TEMPERATURE_TOLERANCE_S_PER_DAY_PER_K", "SweepTable",
+           "sweep_field", "shift_pivot"]
 
 FloatArray = NDArray[np.float64]
 
-PERIOD_TOLERANCE_S = 1e-9
-"""A period target counts as met within this many seconds."""
-TEMPERATURE_TOLERANCE_S_PER_DAY_PER_K = 1e-6
-"""A temperature null counts as met within this many s/day/K."""
-
-_TEMPERATURE_STEP_K = 0.5  # the centred step of the report's temperature coefficient
 _SCAN_POINTS = 201
 _LOCAL_POINTS = 41
-
-
-@dataclass(frozen=True)
-class Targets:
-    """What a solve must meet.
-
-    Attributes
-    ----------
-    period_s : float or None
-        Period to meet at the working amplitude, s (full period).
-    beats_per_hour : float or None
-        The same as beats per hour (period = 7200 / bph); give at most one of the two.
-    null_temperature : bool
-        Make the temperature coefficient zero (s/day/K).
-
-    With no period given, a period target is taken from the design's own target whenever one
-    is needed: for a one-field solve that does not null the temperature, and for a two-field
-    solve.
-
-    Raises
-    ------
-    DesignError
-        Naming the option (``--target-period``, ``--target-bph``) when a target is zero,
-        negative or not finite, or both are given.
-    """
-
-    period_s: float | None = None
-    beats_per_hour: float | None = None
-    null_temperature: bool = False
-
-    def __post_init__(self) -> None:
-        for option, value, unit, top in (("--target-period", self.period_s, "s", 1.0e4),
-                                         ("--target-bph", self.beats_per_hour,
-                                          "beats per hour", 1.0e7)):
-            if value is None:
-                continue
-            if isinstance(value, bool) or not isinstance(value, (int, float)):
-                raise DesignError(option, f"must be a number of {unit}, not {value!r}")
-            if not math.isfinite(value) or value <= 0.0:
-                raise DesignError(option, f"must be a positive, finite number of {unit}, "
-                                          f"not {value:g}")
-            if value > top:
-                raise DesignError(option, f"{value:g} {unit} is out of range: at most {top:g}")
-        if self.period_s is not None and self.beats_per_hour is not None:
-            raise DesignError("--target-bph", "give a target period or beats per hour, "
-                                              "not both")
-
-    @property
-    def given_period_s(self) -> float | None:
-        """The period asked for, s (from beats per hour if given so), or None."""
-        if self.beats_per_hour is not None:
-            return 7200.0 / self.beats_per_hour
-        return self.period_s
-
-
-@dataclass(frozen=True)
-class Solution:
-    """The outcome of a solve (met or not). Nothing here is printed.
-
-    Attributes
-    ----------
-    fields, old_values, values : the varied field paths, their values before and after.
-    design : the design with only those fields changed (the nearest one when not met).
-    met : whether every target is met within its tolerance.
-    goals : "period" and/or "temperature", in the order of ``residuals``.
-    residuals : per goal: period − target, s; temperature coefficient, s/day/K.
-    target_period_s : the period aimed at, s (None when the period was not a goal).
-    period_s, temperature_coefficient_s_per_day_per_k : of ``design``, evaluated anew.
-    searched : per field, the range searched (the field's whole valid range).
-    usable : per field, the part of that range where the scan found usable designs.
-    other_roots : one-field solves: the other values that also meet the target.
-    message : one plain sentence or two saying what was done and found.
-    """
-
-    fields: tuple[str, ...]
-    old_values: tuple[float, ...]
-    values: tuple[float, ...]
-    design: Design
-    met: bool
-    goals: tuple[str, ...]
-    residuals: tuple[float, ...]
-    target_period_s: float | None
-    period_s: float
-    temperature_coefficient_s_per_day_per_k: float
-    searched: tuple[tuple[float, float], ...]
-    usable: tuple[tuple[float, float], ...]
-    other_roots: tuple[float, ...] = field(default=())
-    message: str = ""
-
-    @property
-    def field(self) -> str:
-        """The first (for a one-field solve, the only) field varied."""
-        return self.fields[0]
-
-    @property
-    def old_value(self) -> float:
-        """Its value before."""
-        return self.old_values[0]
-
-    @property
-    def value(self) -> float:
-        """Its solved value."""
-        return self.values[0]
-
-
-# ----------------------------------------------------------------------------- evaluation
-
-def temperature_coefficient(design: Design) -> float:
-    """d(rate)/dT of ``design`` at its site temperature, s/day/K — the report's figure.
-
-    Centred over 0.5 K; the rate is against the design's target (its own period when none).
-    """
-    t = design.site.temperature_c
-    half = _TEMPERATURE_STEP_K / 2.0
-    lo = pendulum_state(design, slopes=False, temperature_c=t - half).period_s
-    hi = pendulum_state(design, slopes=False, temperature_c=t + half).period_s
-    ref = design.target.target_period_s or pendulum_state(design, slopes=False).period_s
-    return SECONDS_PER_DAY * (ref / hi - ref / lo) / _TEMPERATURE_STEP_K
-
-
-class _Problem:
-    """Designs that differ from a base design in the varied fields only, and their goals."""
-
-    def __init__(self, design: Design, paths: list[str], goals: list[str],
-                 target_period_s: float | None) -> None:
-        self.source = design
-        self.base = design_to_dict(design)
-        self.paths = paths
-        self.goals = goals
-        self.target = target_period_s
-        self.old: list[float] = []
-        for path in paths:
-            value = get_value(self.base, path)
-            if isinstance(value, bool) or not isinstance(value, (int, float)):
-                raise DesignError(path, "is not a numeric field of this design")
-            field_range(path)
-            self.old.append(float(value))
-
-    def design(self, xs: tuple[float, ...] | list[float]) -> Design:
-        obj = _copy(self.base)
-        for path, x in zip(self.paths, xs):
-            check_number(path, float(x))
-            _set_in_place(obj, path, float(x))
-        return design_from_dict(obj)
-
-    def goal_values(self, d: Design) -> list[float]:
-        """Per goal: period − target (s) or the temperature coefficient (s/day/K)."""
-        out = []
-        for goal in self.goals:
-            if goal == "period":
-                assert self.target is not None
-                out.append(pendulum_state(d, slopes=False).period_s - self.target)
-            else:
-                out.append(temperature_coefficient(d))
-        return out
-
-    def safe(self, xs: list[float]) -> list[float] | None:
-        """Goal values, or None where the values give no usable design."""
-        try:
-            ys = self.goal_values(self.design(xs))
-        except (ValueError, ArithmeticError):  # DesignError is a ValueError
-            return None
-        return ys if all(math.isfinite(y) for y in ys) else None
-
-    def solution(self, xs: list[float], met: bool | None, searched: list[tuple[float, float]],
-                 usable: list[tuple[float, float]], others: tuple[float, ...],
-                 message: str) -> Solution:
-        d = self.design(xs)
-        st = pendulum_state(d, slopes=False)
-        tc = temperature_coefficient(d)
-        res = tuple(st.period_s - self.target if g == "period" else tc  # type: ignore[operator]
-                    for g in self.goals)
-        if met is None:
-            met = all(abs(r) <= _tolerance(g) for g, r in zip(self.goals, res))
-        return Solution(tuple(self.paths), tuple(self.old), tuple(float(x) for x in xs), d,
-                        met, tuple(self.goals), res,
-                        self.target if "period" in self.goals else None, st.period_s, tc,
-                        tuple(searched), tuple(usable), others, message)
-
-
-def _copy(obj: Any) -> Any:
-    """A copy of a design dict (JSON values only): faster than ``copy.deepcopy``."""
-    if isinstance(obj, dict):
-        return {k: _copy(v) for k, v in obj.items()}
-    if isinstance(obj, list):
-        return [_copy(v) for v in obj]
-    return obj
-
-
-def _set_in_place(obj: Any, path: str, value: float) -> None:
-    """Set an existing numeric field (checked by ``get_value`` beforehand) in ``obj``."""
-    if path.endswith("]"):
-        parent, index = path[:path.rindex("[")], int(path[path.rindex("[") + 1:-1])
-        get_value(obj, parent)[index] = value
-    elif "." in path:
-        parent, key = path.rsplit(".", 1)
-        get_value(obj, parent)[key] = value
-    else:
-        obj[path] = value
-
-
-def _tolerance(goal: str) -> float:
-    return PERIOD_TOLERANCE_S if goal == "period" else TEMPERATURE_TOLERANCE_S_PER_DAY_PER_K
-
-
-def _goal_words(goal: str, target: float | None) -> str:
-    return (f"a period of {target:.10g} s" if goal == "period"
-            else "a zero temperature coefficient")
 
 
 # ----------------------------------------------------------------------------- the scan grid
@@ -296,7 +82,7 @@ def _fine_grid(xs: FloatArray, ok: FloatArray, x0: float, lo: float, hi: float) 
 
 # ----------------------------------------------------------------------------- one field
 
-def _evaluate(problem: _Problem, xs: FloatArray) -> FloatArray:
+def _evaluate(problem: VariedDesign, xs: FloatArray) -> FloatArray:
     ys = np.full(xs.size, math.nan)
     for k, x in enumerate(xs):
         y = problem.safe([float(x)])
@@ -305,7 +91,7 @@ def _evaluate(problem: _Problem, xs: FloatArray) -> FloatArray:
     return ys
 
 
-def _roots(problem: _Problem, xs: FloatArray, ys: FloatArray) -> list[float]:
+def _roots(problem: VariedDesign, xs: FloatArray, ys: FloatArray) -> list[float]:
     """Every root between neighbouring usable scan points (Brent), checked to be a root."""
     from scipy.optimize import brentq
 
@@ -318,7 +104,7 @@ def _roots(problem: _Problem, xs: FloatArray, ys: FloatArray) -> list[float]:
     ok = np.isfinite(ys)
     roots = [float(x) for x in xs[ok & (ys == 0.0)]]
     pairs = np.flatnonzero(ok[:-1] & ok[1:] & (ys[:-1] * ys[1:] < 0.0))
-    tol = _tolerance(problem.goals[0]) * 1e-3
+    tol = tolerance(problem.goals[0]) * 1e-3
     for i in pairs:
         try:
             r = float(brentq(f, xs[i], xs[i + 1], xtol=1e-15, rtol=8.9e-16, maxiter=300))
@@ -329,7 +115,7 @@ def _roots(problem: _Problem, xs: FloatArray, ys: FloatArray) -> list[float]:
     return sorted(set(roots))
 
 
-def _solve_one(problem: _Problem) -> Solution:
+def _solve_one(problem: VariedDesign) -> Solution:
     path, x0, goal = problem.paths[0], problem.old[0], problem.goals[0]
     coarse, (lo, hi) = _coarse_grid(path, x0)
     ys = _evaluate(problem, coarse)
@@ -342,7 +128,7 @@ def _solve_one(problem: _Problem) -> Solution:
     where = (f"searched its whole range {lo:g} to {hi:g}; usable designs from {usable[0]:.6g} "
              f"to {usable[1]:.6g}")
     spread = float(np.ptp(ys[ok]))
-    if spread <= _tolerance(goal) * 1e-3:
+    if spread <= tolerance(goal) * 1e-3:
         what = "the period" if goal == "period" else "the temperature coefficient"
         raise DesignError(path, f"does not change {what} of this design ({where})")
     roots = _roots(problem, xs, ys)
@@ -352,33 +138,27 @@ def _solve_one(problem: _Problem) -> Solution:
                                 "")
         reached = (f"giving {near.period_s:.10g} s" if goal == "period" else
                    f"leaving {near.temperature_coefficient_s_per_day_per_k:.4g} s/day/K")
-        msg = (f"no value gives {_goal_words(goal, problem.target)} ({where}); the nearest is "
+        msg = (f"no value gives {goal_words(goal, problem.target)} ({where}); the nearest is "
                f"{near.value:.6g}, {reached}")
-        return _replace_message(near, msg)
+        return with_message(near, msg)
     best = min(roots, key=lambda r: (abs(r - x0), r))
     others = tuple(r for r in roots if r != best)
-    msg = f"{path} = {best:.12g} gives {_goal_words(goal, problem.target)} ({where})"
+    msg = f"{path} = {best:.12g} gives {goal_words(goal, problem.target)} ({where})"
     if others:
         msg += "; other values that also do: " + ", ".join(f"{r:.9g}" for r in others)
     return problem.solution([best], None, [(lo, hi)], [usable], others, msg)
 
 
-def _replace_message(sol: Solution, message: str) -> Solution:
-    from dataclasses import replace
-
-    return replace(sol, message=message)
-
-
 # ----------------------------------------------------------------------------- two fields
 
-def _usable_box(problem: _Problem, centre: list[float]
+def _usable_box(problem: VariedDesign, centre: list[float]
                 ) -> tuple[list[tuple[float, float]], list[tuple[float, float]]]:
     """Each field's whole range and the part giving usable designs, the other fields held at
     ``centre``."""
     searched, usable = [], []
     held = problem.design(centre)
     for k, path in enumerate(problem.paths):
-        single = _Problem(held, [path], ["period"], problem.target or 1.0)
+        single = VariedDesign(held, [path], ["period"], problem.target or 1.0)
         coarse, (lo, hi) = _coarse_grid(path, centre[k])
         ok = np.isfinite(_evaluate(single, coarse))
         if not ok.any():
@@ -390,12 +170,12 @@ def _usable_box(problem: _Problem, centre: list[float]
     return searched, usable
 
 
-def _solve_two(problem: _Problem) -> Solution:
+def _solve_two(problem: VariedDesign) -> Solution:
     """Both fields together (bounded least squares), the bounds re-scanned around the best
     point while it sits on them (the usable range of one field depends on the other)."""
     from scipy.optimize import least_squares
 
-    scale = np.array([_tolerance(g) for g in problem.goals])
+    scale = np.array([tolerance(g) for g in problem.goals])
     penalty = 1e12
 
     def residual(x: FloatArray) -> FloatArray:
@@ -442,7 +222,7 @@ def _solve_two(problem: _Problem) -> Solution:
         raise DesignError(problem.paths[0], "no pair of values in the usable ranges gives a "
                                             "usable design")
     sol = problem.solution([float(v) for v in best_x], None, searched, usable, (), "")
-    words = " and ".join(_goal_words(g, problem.target) for g in problem.goals)
+    words = " and ".join(goal_words(g, problem.target) for g in problem.goals)
     ranges = "; ".join(f"{p} usable from {u[0]:.6g} to {u[1]:.6g}"
                        for p, u in zip(problem.paths, usable))
     values = ", ".join(f"{p} = {v:.12g}" for p, v in zip(sol.fields, sol.values))
@@ -453,7 +233,7 @@ def _solve_two(problem: _Problem) -> Solution:
                f"design found has {values}, a period of {sol.period_s:.10g} s and a "
                f"temperature coefficient of {sol.temperature_coefficient_s_per_day_per_k:.4g} "
                f"s/day/K")
-    return _replace_message(sol, msg)
+    return with_message(sol, msg)
 
 
 # ----------------------------------------------------------------------------- public
@@ -504,7 +284,7 @@ def solve(design: Design, fields: list[str] | tuple[str, ...], targets: Targets)
         need = ("two targets need two fields: add a second --vary" if len(goals) == 2 else
                 "two fields need two targets: add --null temperature")
         raise DesignError("--vary", need)
-    problem = _Problem(design, paths, goals, period)
+    problem = VariedDesign(design, paths, goals, period)
     return _solve_one(problem) if len(paths) == 1 else _solve_two(problem)
 
 
