@@ -295,6 +295,8 @@ FIELDS: tuple[FieldSpec, ...] = (
        help="Distance from the point under the pivot to the visitors' barrier."),
     _f("materials", "Your materials", "section",
        help="Your own materials, used by key like the built-in ones."),
+    _f("materials.*", "Your material", "section",
+       help="One material of your own: its key is how parts name it."),
     _f("materials.*.name", "Material name", "text", help="The material's name as shown."),
     _f("materials.*.density_kg_m3", "Density", "density", 10.0, 25000.0,
        help="Density, from light woods to the densest metals."),
