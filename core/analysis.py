@@ -185,7 +185,8 @@ def _cautions(design: Design, exhibit: ExhibitFigures) -> tuple[str, ...]:
     if design.suspension.kind == "spring":
         out.append(SPRING_CAUTION)
     if exhibit.static_load_n > 200.0:
-        out.append(f"Heavy pendulum ({exhibit.static_load_n / STANDARD_GRAVITY:.3g} kg): keep people out "
+        kg = exhibit.static_load_n / STANDARD_GRAVITY
+        out.append(f"Heavy pendulum ({kg:.3g} kg): keep people out "
                    "from under it and out of its sweep while it is hung, tested or stopped.")
     if design.site.latitude_deg != 0.0:
         out.append("A swing started with the least sideways motion becomes elliptical and its "

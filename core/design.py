@@ -9,7 +9,7 @@ made by :func:`core.fileformat.design_from_dict` (which validates it); editing m
 from __future__ import annotations
 
 from dataclasses import dataclass
-from typing import Literal, Union
+from typing import Literal
 
 from .materials import MATERIALS, Material
 
@@ -168,7 +168,7 @@ class Weight:
     kind: Literal["weight"] = "weight"
 
 
-Part = Union[Rod, Sleeve, Bob, Weight]
+Part = Rod | Sleeve | Bob | Weight
 
 
 @dataclass(frozen=True)

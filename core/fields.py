@@ -153,7 +153,7 @@ def spec_pattern(path: FieldPath, kind: str | None = None) -> str:
 
 def _f(pattern: str, label: str, unit: str, low: float | None = None,
        high: float | None = None, low_open: bool = False, high_open: bool = False,
-       default: Any = None, help: str = "") -> FieldSpec:  # noqa: A002 - the table's word
+       default: Any = None, help: str = "") -> FieldSpec:
     return FieldSpec(pattern, pattern.rsplit(".", 1)[-1].split("[")[0], label, unit, low, high,
                      low_open, high_open, default, help)
 

@@ -63,7 +63,8 @@ class PendulumState:
 
     @property
     def rate_per_period_change(self) -> float:
-        """d(rate)/dT, (s/day)/s: −SECONDS_PER_DAY·T_target/T² (the clock's own T when no target)."""
+        """d(rate)/dT, (s/day)/s: −SECONDS_PER_DAY·T_target/T² (the clock's own T when no
+        target)."""
         t = self.target_period_s or self.period_s
         return -SECONDS_PER_DAY * t / self.period_s**2
 

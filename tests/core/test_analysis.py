@@ -15,8 +15,7 @@ import pytest
 
 from core import REPORT_KEYS, DesignError, analyse, design_from_dict, load_design
 
-from _core_builders import (DESIGN_KEYS, G_N, LIGHT_KG, bob, clamp, design, point_pendulum,
-                            rod)
+from _core_builders import DESIGN_KEYS, G_N, LIGHT_KG, bob, clamp, design, point_pendulum, rod
 from _mp_reference import mp_ratio
 
 mpmath.mp.dps = 40

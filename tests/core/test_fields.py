@@ -5,14 +5,23 @@ from __future__ import annotations
 
 import copy
 import math
+from collections.abc import Iterator
 from pathlib import Path
-from typing import Any, Iterator
+from typing import Any
 
 import pytest
 
 from core import DesignError, design_from_dict, design_to_dict, load_design
-from core.fields import (CHOICES, FIELDS, UNIT_KINDS, FieldPath, FieldSpec, choice_label,
-                         field_spec, range_text)
+from core.fields import (
+    CHOICES,
+    FIELDS,
+    UNIT_KINDS,
+    FieldPath,
+    FieldSpec,
+    choice_label,
+    field_spec,
+    range_text,
+)
 from core.fileformat import check_number, field_range, set_in_dict
 from core.materials import MATERIALS
 

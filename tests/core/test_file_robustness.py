@@ -16,8 +16,9 @@ import random
 import subprocess
 import sys
 import tempfile
+from collections.abc import Callable
 from pathlib import Path
-from typing import Any, Callable
+from typing import Any
 
 import pytest
 
@@ -279,7 +280,7 @@ def _fail_write_after(monkeypatch: pytest.MonkeyPatch, code: int, keep: int) -> 
         def __getattr__(self, name: str) -> Any:
             return getattr(self._fh, name)
 
-        def __enter__(self) -> "Failing":
+        def __enter__(self) -> Failing:
             return self
 
         def __exit__(self, *exc: object) -> None:

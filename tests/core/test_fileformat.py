@@ -16,13 +16,24 @@ import glob
 import json
 import math
 import os
+from collections.abc import Iterator
 from pathlib import Path
-from typing import Any, Iterator
+from typing import Any
 
 import pytest
 
-from core import (Design, DesignError, analyse, design_from_dict, design_to_dict, dumps_design,
-                  load_design, loads_design, save_design, with_value)
+from core import (
+    Design,
+    DesignError,
+    analyse,
+    design_from_dict,
+    design_to_dict,
+    dumps_design,
+    load_design,
+    loads_design,
+    save_design,
+    with_value,
+)
 
 ROOT = Path(__file__).resolve().parents[2]
 EXAMPLES = sorted(glob.glob(str(ROOT / "resources" / "examples" / "*.pendulum.json")))

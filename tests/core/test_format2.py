@@ -13,8 +13,15 @@ from typing import Any
 
 import pytest
 
-from core import (DesignError, analyse, design_from_dict, design_to_dict, dumps_design,
-                  loads_design, save_design)
+from core import (
+    DesignError,
+    analyse,
+    design_from_dict,
+    design_to_dict,
+    dumps_design,
+    loads_design,
+    save_design,
+)
 from core.mass_properties import layout
 from core.materials import MATERIALS
 
