@@ -11,6 +11,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Literal
 
+from .constants import BEATS_PER_PERIOD, SECONDS_PER_HOUR
 from .materials import MATERIALS, Material
 
 __all__ = [
@@ -21,16 +22,17 @@ __all__ = [
 
 BOB_SHAPES = ("disc", "lens", "cylinder", "sphere")
 PURPOSES = ("clock", "exhibit")
+_BEAT_SECONDS_PER_HOUR = BEATS_PER_PERIOD * SECONDS_PER_HOUR  # 7200
 
 
 def beats_per_hour(period_s: float) -> float:
     """Beats per hour of a full period (s): two beats a period, 7200 / T."""
-    return 7200.0 / period_s
+    return _BEAT_SECONDS_PER_HOUR / period_s
 
 
 def period_from_beats_per_hour(beats: float) -> float:
     """Full period, s, of a pendulum beating ``beats`` times an hour."""
-    return 7200.0 / beats
+    return _BEAT_SECONDS_PER_HOUR / beats
 
 
 @dataclass(frozen=True)

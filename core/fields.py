@@ -20,7 +20,7 @@ import re
 from dataclasses import dataclass
 from typing import Any
 
-from .constants import SECONDS_PER_HOUR
+from .constants import BEATS_PER_PERIOD, SECONDS_PER_HOUR
 
 __all__ = ["FieldSpec", "FieldPath", "FIELDS", "UNIT_KINDS", "CHOICES", "field_spec",
            "choice_label", "range_text", "spec_pattern", "PART_KINDS"]
@@ -32,7 +32,6 @@ PART_KINDS = ("rod", "sleeve", "bob", "weight")
 
 _SHORTEST_PERIOD_S = 0.05  # a target shorter than this is no pendulum clock (common practice)
 _LONGEST_PERIOD_S = 100.0  # a 2.5 km pendulum: longer than any built (plain geometry)
-_BEATS_PER_PERIOD = 2
 
 
 @dataclass(frozen=True)
@@ -282,8 +281,8 @@ FIELDS: tuple[FieldSpec, ...] = (
     _f("target.period_s", "Target period", "period", _SHORTEST_PERIOD_S, _LONGEST_PERIOD_S,
        help="The full period (there and back) the clock should keep."),
     _f("target.beats_per_hour", "Target beats per hour", "frequency",
-       _BEATS_PER_PERIOD * SECONDS_PER_HOUR / _LONGEST_PERIOD_S,
-       _BEATS_PER_PERIOD * SECONDS_PER_HOUR / _SHORTEST_PERIOD_S,
+       BEATS_PER_PERIOD * SECONDS_PER_HOUR / _LONGEST_PERIOD_S,
+       BEATS_PER_PERIOD * SECONDS_PER_HOUR / _SHORTEST_PERIOD_S,
        help="The train's count: beats per hour, two beats a full period."),
     _f("rating_nut", "Rating nut", "section", help="The nut under the bob that sets the rate."),
     _f("rating_nut.pitch_m", "Thread pitch", "small_length", 0.0, 0.01, low_open=True,

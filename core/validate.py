@@ -16,7 +16,17 @@ from collections.abc import Callable
 from dataclasses import dataclass
 from typing import Any
 
-from .design import Blades, Design, ExhibitSite, RatingNut, Site, Suspension, Swing, Target
+from .design import (
+    PURPOSES,
+    Blades,
+    Design,
+    ExhibitSite,
+    RatingNut,
+    Site,
+    Suspension,
+    Swing,
+    Target,
+)
 from .errors import DesignError
 from .fields import FieldPath, field_spec, range_text
 from .materials import MATERIALS, Material
@@ -342,10 +352,10 @@ def _version(r: Reader) -> int:
     if isinstance(version, bool) or not isinstance(version, int):
         shown = f"{version:g}" if isinstance(version, float) else kind_of(version)
         raise DesignError("version", f"must be a whole number such as {VERSION}, not {shown}")
-    if version > VERSION:
+    if version > max(READABLE_VERSIONS):
         raise DesignError("version", f"version {version} is newer than this Penduline reads "
                                      f"(up to {VERSION}); update Penduline")
-    if version < 1:
+    if version not in READABLE_VERSIONS:
         raise DesignError("version", f"version {version} is not a design file version")
     return version
 
@@ -360,7 +370,7 @@ def _design_from_dict(obj: Any) -> Design:
         raise DesignError("format", f"{shown} is not a Penduline design (expected {FORMAT!r})")
     r.version = _version(r)
     name = r.text("name", False, "Untitled")
-    purpose = r.choice("purpose", ("clock", "exhibit"), False)
+    purpose = r.choice("purpose", PURPOSES, False)
     ref = r.opt("reference_temperature_c")
     mat_reader = r.child("materials", False)
     user = _parse_materials(mat_reader) if mat_reader is not None else ()
