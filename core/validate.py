@@ -32,7 +32,7 @@ from .fields import FieldPath, field_spec, range_text
 from .materials import MATERIALS, Material
 
 __all__ = ["FORMAT", "VERSION", "READABLE_VERSIONS", "check_number", "design_from_dict",
-           "Reader", "SECTIONS", "Section", "kind_of"]
+           "Reader", "SECTIONS", "Section", "kind_of", "shown"]
 
 FORMAT = "penduline-design"
 VERSION = 2
@@ -48,6 +48,13 @@ def kind_of(value: Any) -> str:
     names = {bool: "true/false", int: "a number", float: "a number", str: "text",
              list: "a list", dict: "an object", type(None): "null"}
     return names.get(type(value), type(value).__name__)
+
+
+def shown(x: float) -> str:
+    """``x`` short (``%g``) when that is exact, else in full, so a refused value just past a
+    limit never prints as the limit itself."""
+    short = f"{x:g}"
+    return short if float(short) == x else repr(x)
 
 
 def check_number(path: str, value: Any, kind: str | None = None) -> float:
@@ -73,7 +80,7 @@ def check_number(path: str, value: Any, kind: str | None = None) -> float:
     except (KeyError, ValueError):
         return x
     if spec.numeric and not spec.contains(x):
-        raise DesignError(path, f"{spec.label} {x:g} is out of range: it must be in "
+        raise DesignError(path, f"{spec.label} {shown(x)} is out of range: it must be in "
                                 f"{range_text(spec)}")
     return x
 
@@ -350,8 +357,8 @@ def _version(r: Reader) -> int:
     if isinstance(version, float) and version.is_integer():
         version = int(version)
     if isinstance(version, bool) or not isinstance(version, int):
-        shown = f"{version:g}" if isinstance(version, float) else kind_of(version)
-        raise DesignError("version", f"must be a whole number such as {VERSION}, not {shown}")
+        what = shown(version) if isinstance(version, float) else kind_of(version)
+        raise DesignError("version", f"must be a whole number such as {VERSION}, not {what}")
     if version > max(READABLE_VERSIONS):
         raise DesignError("version", f"version {version} is newer than this Penduline reads "
                                      f"(up to {VERSION}); update Penduline")
