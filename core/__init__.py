@@ -16,13 +16,13 @@ from .analysis import REPORT_KEYS, Result, analyse
 from .design import Design
 from .errors import DesignError
 from .fileformat import (
-                         design_from_dict,
-                         design_to_dict,
-                         dumps_design,
-                         load_design,
-                         loads_design,
-                         save_design,
-                         with_value,
+    design_from_dict,
+    design_to_dict,
+    dumps_design,
+    load_design,
+    loads_design,
+    save_design,
+    with_value,
 )
 
 __all__ = ["Design", "DesignError", "Result", "REPORT_KEYS", "analyse", "load_design",
