@@ -162,16 +162,16 @@ def _solve(args: argparse.Namespace) -> int:
     targets = Targets(period_s=args.target_period, beats_per_hour=args.target_bph,
                       null_temperature=args.null == "temperature")
     sol = solve(design, args.vary, targets)
-    for path, (lo, hi), (a, b) in zip(sol.fields, sol.searched, sol.usable):
+    for path, (lo, hi), (a, b) in zip(sol.fields, sol.searched, sol.usable, strict=True):
         print(f"{path}: searched {lo:g} to {hi:g}, usable designs from {a:.6g} to {b:.6g}")
-    for path, old, new in zip(sol.fields, sol.old_values, sol.values):
+    for path, old, new in zip(sol.fields, sol.old_values, sol.values, strict=True):
         print(f"{path} = {new:.12g}  (was {old:.12g})")
     if sol.other_roots:
         print("other values that also meet the target: "
               + ", ".join(f"{r:.9g}" for r in sol.other_roots))
     print(f"period {sol.period_s:.12f} s, temperature coefficient "
           f"{sol.temperature_coefficient_s_per_day_per_k:+.3e} s/day/K")
-    for goal, residual in zip(sol.goals, sol.residuals):
+    for goal, residual in zip(sol.goals, sol.residuals, strict=True):
         print(f"residual: period {residual:+.3e} s" if goal == "period"
               else f"residual: temperature coefficient {residual:+.3e} s/day/K")
     if not sol.met:
@@ -179,7 +179,7 @@ def _solve(args: argparse.Namespace) -> int:
         return 2
     if args.write:
         raw = read_design_dict(args.file)
-        for path, value in zip(sol.fields, sol.values):
+        for path, value in zip(sol.fields, sol.values, strict=True):
             raw = set_in_dict(raw, path, value)
         write_text_atomic(args.write, json.dumps(raw, indent=2, ensure_ascii=False) + "\n")
         print(f"wrote {args.write}")

@@ -27,9 +27,17 @@ from numpy.typing import NDArray
 from .design import Design
 from .errors import DesignError, guarded
 from .fileformat import field_range
-from .solve_targets import (PERIOD_TOLERANCE_S, TEMPERATURE_TOLERANCE_S_PER_DAY_PER_K, Solution,
-                            Targets, VariedDesign, goal_words, temperature_coefficient,
-                            tolerance, with_message)
+from .solve_targets import (
+    PERIOD_TOLERANCE_S,
+    TEMPERATURE_TOLERANCE_S_PER_DAY_PER_K,
+    Solution,
+    Targets,
+    VariedDesign,
+    goal_words,
+    temperature_coefficient,
+    tolerance,
+    with_message,
+)
 from .sweep import SweepTable, shift_pivot, sweep_field
 
 __all__ = ["Targets", "Solution", "solve", "solve_field", "temperature_coefficient",
@@ -196,7 +204,7 @@ def _solve_two(problem: VariedDesign) -> Solution:
     for round_ in range(6):
         searched, usable = _usable_box(problem, centre)
         box = usable if not box else [(min(a[0], b[0]), max(a[1], b[1]))
-                                      for a, b in zip(box, usable)]
+                                      for a, b in zip(box, usable, strict=True)]
         lower = np.array([u[0] for u in usable])
         upper = np.array([u[1] for u in usable])
         starts = [np.array(centre)]
@@ -224,8 +232,8 @@ def _solve_two(problem: VariedDesign) -> Solution:
     sol = problem.solution([float(v) for v in best_x], None, searched, usable, (), "")
     words = " and ".join(goal_words(g, problem.target) for g in problem.goals)
     ranges = "; ".join(f"{p} usable from {u[0]:.6g} to {u[1]:.6g}"
-                       for p, u in zip(problem.paths, usable))
-    values = ", ".join(f"{p} = {v:.12g}" for p, v in zip(sol.fields, sol.values))
+                       for p, u in zip(problem.paths, usable, strict=True))
+    values = ", ".join(f"{p} = {v:.12g}" for p, v in zip(sol.fields, sol.values, strict=True))
     if sol.met:
         msg = f"{values} give {words} (searched the fields' whole ranges: {ranges})"
     else:

@@ -166,7 +166,7 @@ class VariedDesign:
 
     def design(self, xs: tuple[float, ...] | list[float]) -> Design:
         obj = _copy(self.base)
-        for path, x in zip(self.paths, xs):
+        for path, x in zip(self.paths, xs, strict=True):
             check_number(path, float(x))
             _set_in_place(obj, path, float(x))
         return design_from_dict(obj)
@@ -199,7 +199,7 @@ class VariedDesign:
         res = tuple(st.period_s - self.target if g == "period" else tc  # type: ignore[operator]
                     for g in self.goals)
         if met is None:
-            met = all(abs(r) <= tolerance(g) for g, r in zip(self.goals, res))
+            met = all(abs(r) <= tolerance(g) for g, r in zip(self.goals, res, strict=True))
         return Solution(tuple(self.paths), tuple(self.old), tuple(float(x) for x in xs), d,
                         met, tuple(self.goals), res,
                         self.target if "period" in self.goals else None, st.period_s, tc,

@@ -15,8 +15,13 @@ import pytest
 from scipy.integrate import quad, solve_bvp
 
 from core import DesignError
-from core.blades import (SPRING_STRESS_CAUTION, bending_length_m, blade_clamp_stresses,
-                         blade_pivot_below_clamp_m, blade_stiffness_n_m_per_rad)
+from core.blades import (
+    SPRING_STRESS_CAUTION,
+    bending_length_m,
+    blade_clamp_stresses,
+    blade_pivot_below_clamp_m,
+    blade_stiffness_n_m_per_rad,
+)
 from core.materials import material
 
 E_STEEL = material("steel").youngs_modulus_pa

@@ -23,9 +23,28 @@ from core import (
     with_value,
 )
 from core.fileformat import get_value
-from core.solve import solve_field, sweep_field
+from core.solve import (
+    PERIOD_TOLERANCE_S,
+    TEMPERATURE_TOLERANCE_S_PER_DAY_PER_K,
+    Targets,
+    solve,
+    solve_field,
+    sweep_field,
+    temperature_coefficient,
+)
 
-from _core_builders import G_N, bob, clamp, design, point_pendulum, rod, weight
+from _core_builders import (
+    G_N,
+    LIGHT_KG,
+    bob,
+    clamp,
+    design,
+    on_sleeve,
+    point_pendulum,
+    rod,
+    sleeve,
+    weight,
+)
 from _mp_reference import mp_ratio
 
 EXAMPLE = str(Path(__file__).resolve().parents[2] / "resources" / "examples"
@@ -201,12 +220,6 @@ class TestPivotSweepReversible:
 
 # ----------------------------------------------------------------------------- whole range,
 # two fields, targets (core.solve.solve)
-
-from core.fileformat import field_range  # noqa: E402
-from core.solve import (PERIOD_TOLERANCE_S, TEMPERATURE_TOLERANCE_S_PER_DAY_PER_K,  # noqa: E402
-                        Targets, solve, temperature_coefficient)
-
-from _core_builders import LIGHT_KG, on_sleeve, sleeve  # noqa: E402
 
 ZINC = str(Path(EXAMPLE).with_name("zinc_tube_regulator.pendulum.json"))
 
