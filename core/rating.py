@@ -265,8 +265,8 @@ def fit_rating(log: RatingLog, reference: Conditions) -> RatingFit:
                         "left over to judge the uncertainties, so none are given.")
     sigma = np.sqrt(np.diag(cov))
     for k, name in enumerate(names[2 * m:]):
-        col = 2 * m + k
-        coeffs[name] = Coefficient(name, float(beta[col]), _finite(sigma[col]), "")
+        j = 2 * m + k
+        coeffs[name] = Coefficient(name, float(beta[j]), _finite(sigma[j]), "")
     fitted_all = np.full(len(log.readings), math.nan)
     resid_all = np.full(len(log.readings), math.nan)
     fitted_all[idx], resid_all[idx] = fitted, resid
