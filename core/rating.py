@@ -294,8 +294,9 @@ def _undetermined(cond: str, noted: list[float]) -> str:
         return f"{have} the {single} ({MIN_CONDITION_READINGS} needed)"
     span = max(noted) - min(noted)
     if span < MIN_SPAN[cond]:
-        return (f"{plural} span only {span:.2g} {unit} (at least {MIN_SPAN[cond]:g} {unit} "
-                "needed)")
+        sep = "" if unit == "°" else " "
+        return (f"{plural} span only {span:.2g}{sep}{unit} (at least {MIN_SPAN[cond]:g}{sep}"
+                f"{unit} needed)")
     return ""
 
 
