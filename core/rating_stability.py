@@ -62,7 +62,8 @@ def phase_allan_deviation(x_s: Sequence[float] | FloatArray, tau0_s: float,
     ----------
     x_s : phase data, s (the clock's error at each reading).
     tau0_s : spacing of the data, s.
-    m_values : averaging factors (default: 1, 2, 4, … up to (N − 1)/2).
+    m_values : averaging factors (default: 1, 2, 4, … while at least two second differences
+        remain, N − 2m ≥ 2).
 
     Returns
     -------
@@ -71,7 +72,7 @@ def phase_allan_deviation(x_s: Sequence[float] | FloatArray, tau0_s: float,
     x = np.asarray(x_s, dtype=float)
     n = x.size
     if m_values is None:
-        top = (n - 1) // 2
+        top = (n - 2) // 2
         m_values = [2**k for k in range(int(math.log2(top)) + 1)] if top >= 1 else []
     ms = [int(m) for m in m_values if 1 <= int(m) and n - 2 * int(m) >= 1]
     adev = np.empty(len(ms))
@@ -85,11 +86,11 @@ def phase_allan_deviation(x_s: Sequence[float] | FloatArray, tau0_s: float,
 def allan_deviation(readings: Sequence[Reading], label: str = "the readings") -> AllanDeviation:
     """Overlapping ADEV of the rate from evenly spaced readings (one segment's).
 
-    Uneven spacing (intervals spreading by more than 1 % of their mean) or fewer than three
+    Uneven spacing (intervals spreading by more than 1 % of their mean) or fewer than four
     readings give no number, only a sentence in ``note``.
     """
-    if len(readings) < 3:
-        return AllanDeviation(None, None, f"{label.capitalize()} hold fewer than 3 readings: "
+    if len(readings) < 4:
+        return AllanDeviation(None, None, f"{label.capitalize()} hold fewer than 4 readings: "
                                           "no Allan deviation.")
     seconds = np.array([(r.at - readings[0].at).total_seconds() for r in readings])
     steps = np.diff(seconds)
