@@ -20,7 +20,7 @@ from dataclasses import dataclass
 from datetime import datetime
 from typing import Any, Literal
 
-from .errors import DesignError
+from .errors import DesignError, guarded
 
 __all__ = ["Reading", "Adjustment", "DecayReading", "RatingLog", "ADJUSTMENT_KINDS",
            "CSV_COLUMNS", "rating_log_from_dict", "rating_log_to_dict", "rating_log_from_csv",
@@ -245,6 +245,7 @@ def _decay(item: Any, path: str) -> DecayReading:
     return DecayReading(elapsed, arc)
 
 
+@guarded("rating_log")
 def rating_log_from_dict(obj: Any, path: str = "rating_log") -> RatingLog:
     """Validate the ``rating_log`` object of a design file (DESIGN §8).
 
@@ -331,6 +332,7 @@ def _csv_row(row: dict[str, str]) -> Reading | Adjustment | DecayReading:
     return Adjustment(at, kind, amount, note)  # type: ignore[arg-type]
 
 
+@guarded("csv")
 def rating_log_from_csv(text: str) -> tuple[RatingLog, list[str]]:
     """Read a rating log from CSV text (columns: :data:`CSV_COLUMNS`, header first).
 

@@ -243,3 +243,45 @@ def test_demo_file_is_reproduced_by_its_script_and_is_valid() -> None:
     log = rating_log_from_dict(stored["rating_log"])
     assert len(log.readings) == 31 and [a.what for a in log.adjustments] == ["nut", "set"]
     assert len(log.decay) >= 3
+
+
+# ----------------------------------------------------------------------------- garbage in
+
+from hypothesis import given, settings  # noqa: E402
+from hypothesis import strategies as st  # noqa: E402
+
+_SCALARS = st.one_of(st.none(), st.booleans(), st.integers(-10**20, 10**20),
+                     st.floats(allow_nan=True, allow_infinity=True), st.text(max_size=30),
+                     st.sampled_from(["2027-03-01T08:00:00+01:00", "2027-03-01T08:00:00",
+                                      "nut", "set", "reading", "decay"]))
+_JSON = st.recursive(_SCALARS, lambda inner: st.one_of(
+    st.lists(inner, max_size=4),
+    st.dictionaries(st.sampled_from(["readings", "adjustments", "decay", "at", "error_s",
+                                     "temperature_c", "what", "amount", "elapsed_s",
+                                     "semi_arc_deg", "note", "x"]), inner, max_size=5)),
+    max_leaves=20)
+
+
+@settings(max_examples=150, deadline=None, derandomize=True, database=None)
+@given(_JSON)
+def test_any_json_gives_a_log_or_a_design_error(raw: Any) -> None:
+    try:
+        rating_log_from_dict(raw)
+    except DesignError as err:
+        assert err.field.startswith("rating_log")
+
+
+@settings(max_examples=150, deadline=None, derandomize=True, database=None)
+@given(st.lists(st.lists(st.one_of(_SCALARS.map(str), st.sampled_from(
+    ["1.5", "-0.2", "20", "1e400", "nan", ""])), max_size=10), max_size=6))
+def test_any_csv_gives_a_log_or_a_design_error(rows: list[list[str]]) -> None:
+    import csv
+    import io
+    out = io.StringIO()
+    w = csv.writer(out)
+    w.writerow(["kind", "at", "error_s", "temperature_c", "pressure_hpa", "semi_arc_deg",
+                "amount", "note", "elapsed_s"])
+    w.writerows(rows)
+    log, messages = rating_log_from_csv(out.getvalue())
+    assert all(m.startswith("row ") for m in messages)
+    assert rating_log_from_dict(rating_log_to_dict(log)) == log
