@@ -164,16 +164,20 @@ def correction(design: Design, result: Result, measured_rate: float) -> Correcti
 
 
 def _bob_per_mm(design: Design, s: Any) -> float | None:
-    """Rate change, s/day, for the bob lowered 1 mm: a clamped bob alone; a bob resting on a
-    sleeve can only go down with its sleeve, so the nut's figure per mm is used."""
+    """Rate change, s/day, for the bob lowered 1 mm: a clamped bob alone (the sensitivity); a
+    bob resting on a sleeve can only go down with its sleeve, so that move, as
+    :func:`apply_correction` writes it, is differenced (centred, ±0.5 mm)."""
     try:
         _i, bob = _main_bob(design)
     except DesignError:
         return None
-    if isinstance(bob.mount, ClampMount) or design.rating_nut.pitch_m is None or \
-            s.rating_nut_s_per_day_per_turn is None:
+    if isinstance(bob.mount, ClampMount):
         return s.bob_s_per_day_per_mm  # type: ignore[no-any-return]
-    return -float(s.rating_nut_s_per_day_per_turn) / (design.rating_nut.pitch_m * 1000.0)
+    base = pendulum_state(design, slopes=False)
+    target = design.target.target_period_s or base.period_s
+    lo, hi = (pendulum_state(apply_correction(design, "bob", x), slopes=False).period_s
+              for x in (-0.5, 0.5))
+    return 86400.0 * (target / hi - target / lo)
 
 
 def _main_bob(design: Design) -> tuple[int, Bob]:
