@@ -78,14 +78,14 @@ def naive_fit(log: RatingLog, ref: Conditions) -> tuple[np.ndarray, np.ndarray]:
     labels = sorted(set(seg))
     rows = []
     for s in labels:
-        members = [r for r, k in zip(log.readings, seg) if k == s]
+        members = [r for r, k in zip(log.readings, seg, strict=True) if k == s]
         t = np.array([(r.at - members[0].at).total_seconds() / 86400.0 for r in members])
         for j in range(len(members)):
             row = [1.0 if q == s else 0.0 for q in labels]
             row += [t[j] if q == s else 0.0 for q in labels]
             for name in CONDITION_NAMES:
                 values = np.array([getattr(r, name) for r in members]) - getattr(ref, name)
-                row.append(quad(lambda x: float(np.interp(x, t, values)), 0.0, t[j],
+                row.append(quad(lambda x, t=t, v=values: float(np.interp(x, t, v)), 0.0, t[j],
                                 points=list(t[1:j]), limit=500)[0] if j else 0.0)
             rows.append(row)
     x = np.array(rows)

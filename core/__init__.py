@@ -21,11 +21,26 @@ forms, editing by field path), :mod:`core.materials`, :mod:`core.gravity`,
 from .analysis import REPORT_KEYS, Result, analyse
 from .design import Design
 from .errors import DesignError
-from .fileformat import (design_from_dict, design_to_dict, dumps_design, load_design,
-                         loads_design, save_design, with_value)
+from .fileformat import (
+    design_from_dict,
+    design_to_dict,
+    dumps_design,
+    load_design,
+    loads_design,
+    save_design,
+    with_value,
+)
 from .rating import Conditions, RatingFit, fit_rating
-from .rating_log import (Adjustment, DecayReading, RatingLog, Reading, rating_log_from_csv,
-                         rating_log_from_dict, rating_log_to_csv, rating_log_to_dict)
+from .rating_log import (
+    Adjustment,
+    DecayReading,
+    RatingLog,
+    Reading,
+    rating_log_from_csv,
+    rating_log_from_dict,
+    rating_log_to_csv,
+    rating_log_to_dict,
+)
 from .rating_report import rating_report, rating_text
 
 __all__ = ["Design", "DesignError", "Result", "REPORT_KEYS", "analyse", "load_design",

@@ -37,6 +37,7 @@ from datetime import datetime
 import numpy as np
 from numpy.typing import NDArray
 
+from .constants import SECONDS_PER_DAY
 from .errors import DesignError, guarded
 from .rating_log import RatingLog, rating_log_from_dict, rating_log_to_dict
 
@@ -217,18 +218,18 @@ def fit_rating(log: RatingLog, reference: Conditions) -> RatingFit:
                           f"no segment has {MIN_SEGMENT_READINGS} readings (there are "
                           f"{len(log.readings)} readings in {len(segs)} segment(s)): a rate "
                           "needs at least three readings between adjustments")
-    idx = np.concatenate([np.arange(f, l + 1) for _n, f, l in used])
+    idx = np.concatenate([np.arange(f, last + 1) for _n, f, last in used])
     readings = [log.readings[i] for i in idx]
     n, m = len(readings), len(used)
     epoch = readings[0].at
-    t_all = np.array([(r.at - epoch).total_seconds() / 86400.0 for r in readings])
+    t_all = np.array([(r.at - epoch).total_seconds() / SECONDS_PER_DAY for r in readings])
     starts = np.zeros(n, dtype=bool)
     seg_of = np.empty(n, dtype=int)
     pos = 0
-    for j, (_num, f, l) in enumerate(used):
+    for j, (_num, f, last) in enumerate(used):
         starts[pos] = True
-        seg_of[pos:pos + l - f + 1] = j
-        pos += l - f + 1
+        seg_of[pos:pos + last - f + 1] = j
+        pos += last - f + 1
     t_seg = t_all - t_all[starts][seg_of]
     columns = [(seg_of == j).astype(float) for j in range(m)] + \
               [np.where(seg_of == j, t_seg, 0.0) for j in range(m)]

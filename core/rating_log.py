@@ -378,7 +378,7 @@ def rating_log_from_csv(text: str) -> tuple[RatingLog, list[str]]:
             messages.append(f"row {number}: has {len(cells)} cells but the header names "
                             f"{len(names)} columns; refused")
             continue
-        row = dict(zip(names, cells))
+        row = dict(zip(names, cells, strict=False))
         try:
             entry = _csv_row(row)
         except DesignError as exc:

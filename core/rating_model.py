@@ -18,10 +18,11 @@ from dataclasses import dataclass
 from typing import Any
 
 from .analysis import Result, analyse
+from .constants import SECONDS_PER_DAY
 from .design import Bob, ClampMount, Design, Rod, Weight
 from .errors import DesignError, guarded
 from .fileformat import design_from_dict, design_to_dict, field_range, get_value, with_value
-from .model import bob_index, gravity_at, pendulum_state
+from .model import gravity_at, pendulum_state
 from .rating import Conditions
 
 __all__ = ["ModelAtConditions", "Correction", "ClockFit", "reference_conditions",
@@ -137,8 +138,9 @@ def correction(design: Design, result: Result, measured_rate: float) -> Correcti
     elif nut == 0.0:
         direction = "leave the rating nut as it is"
     else:
-        direction = (f"turn the rating nut {abs(nut):.3g} turn(s) "
-                     f"{'up (the bob rises, the clock gains)' if nut > 0 else 'down (the bob drops, the clock loses)'}")
+        way = ("up (the bob rises, the clock gains)" if nut > 0
+               else "down (the bob drops, the clock loses)")
+        direction = f"turn the rating nut {abs(nut):.3g} turn(s) {way}"
     per_mm = _bob_per_mm(design, s)
     bob = None if not per_mm else -measured_rate / per_mm
     bob_mass = _main_bob_mass(result)
@@ -177,16 +179,15 @@ def _bob_per_mm(design: Design, s: Any) -> float | None:
     target = design.target.target_period_s or base.period_s
     lo, hi = (pendulum_state(apply_correction(design, "bob", x), slopes=False).period_s
               for x in (-0.5, 0.5))
-    return 86400.0 * (target / hi - target / lo)
+    return SECONDS_PER_DAY * (target / hi - target / lo)
 
 
 def _main_bob(design: Design) -> tuple[int, Bob]:
-    i = bob_index(design, pendulum_state(design, slopes=False))
-    if i is None:
-        raise DesignError("parts", "the design has no bob to move")
-    bob = design.parts[i]
-    assert isinstance(bob, Bob)
-    return i, bob
+    main = pendulum_state(design, slopes=False).main_bob()
+    for i, part in enumerate(design.parts):
+        if main is not None and isinstance(part, Bob) and part.name == main.name:
+            return i, part
+    raise DesignError("parts", "the design has no bob to move")
 
 
 def _index(design: Design, name: str) -> int:

@@ -12,11 +12,13 @@ Q needs three decay readings. Every float is finite or null.
 from __future__ import annotations
 
 import math
-from typing import Any, Sequence
+from collections.abc import Sequence
+from typing import Any
 
 import numpy as np
 
 from .analysis import analyse
+from .constants import SECONDS_PER_DAY
 from .design import Design
 from .errors import DesignError, guarded
 from .rating import CONDITION_NAMES, Conditions, RatingFit, fit_rating
@@ -110,7 +112,7 @@ def _fit_part(design: Design, log: RatingLog, fit: RatingFit) -> dict[str, Any]:
                          "bob_lowered_mm": corr.bob_lowered_mm}
     allan = _allan(log, fit)
     out["allan_deviation"] = None if allan.adev is None or allan.tau_s is None else [
-        {"tau_s": t, "adev": a} for t, a in zip(allan.tau_s, allan.adev)]
+        {"tau_s": t, "adev": a} for t, a in zip(allan.tau_s, allan.adev, strict=True)]
     out["allan_note"] = allan.note
     out["warnings"] = list(fit.warnings) + list(corr.warnings)
     return out
@@ -210,7 +212,7 @@ def rating_text(report: dict[str, Any]) -> str:
                      f"{_num(corr['trim_g'], '+.3g', ' g')} at {corr['trim_height_m']:.3g} m; "
                      f"or lower the bob {_num(corr['bob_lowered_mm'], '+.3g', ' mm')}")
     if report.get("allan_deviation"):
-        pts = ", ".join(f"{p['adev']:.2e} at {p['tau_s'] / 86400:.3g} d"
+        pts = ", ".join(f"{p['adev']:.2e} at {p['tau_s'] / SECONDS_PER_DAY:.3g} d"
                         for p in report["allan_deviation"])
         lines.append(f"Allan deviation: {pts}. {report.get('allan_note', '')}")
     elif report.get("allan_note"):

@@ -25,12 +25,13 @@ own restoring torque is not in this model.
 from __future__ import annotations
 
 import math
+from collections.abc import Sequence
 from dataclasses import dataclass
-from typing import Sequence
 
 import numpy as np
 from numpy.typing import NDArray
 
+from .constants import SECONDS_PER_HOUR
 from .errors import DesignError, guarded
 from .rating_log import DecayReading, Reading
 
@@ -99,13 +100,14 @@ def allan_deviation(readings: Sequence[Reading], label: str = "the readings") ->
     if spread > EVEN_SPACING_TOLERANCE:
         return AllanDeviation(None, None,
                               f"The intervals between {label} range from "
-                              f"{np.min(steps) / 3600:.3g} h to {np.max(steps) / 3600:.3g} h "
+                              f"{np.min(steps) / SECONDS_PER_HOUR:.3g} h to "
+                              f"{np.max(steps) / SECONDS_PER_HOUR:.3g} h "
                               f"({100 * spread:.3g} % of their mean): the Allan deviation needs "
                               f"evenly spaced readings (within {100 * EVEN_SPACING_TOLERANCE:g} "
                               "%), so none is given.")
     tau, adev = phase_allan_deviation([r.error_s for r in readings], mean)
     return AllanDeviation(tau, adev, f"From {label}: {len(readings)} readings "
-                                     f"{mean / 3600:.4g} h apart.")
+                                     f"{mean / SECONDS_PER_HOUR:.4g} h apart.")
 
 
 def _dlog(a: FloatArray) -> FloatArray:

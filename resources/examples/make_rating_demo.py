@@ -13,7 +13,7 @@ from __future__ import annotations
 
 import json
 import math
-from datetime import datetime, timedelta, timezone
+from datetime import UTC, datetime, timedelta, timezone
 from pathlib import Path
 
 import numpy as np
@@ -40,17 +40,17 @@ def _conditions(day: float, rng: np.random.Generator) -> tuple[float, float, flo
 def build() -> dict[str, object]:
     rng = np.random.default_rng(SEED)
     winter, summer = timezone(timedelta(hours=1)), timezone(timedelta(hours=2))
-    start = datetime(2027, 3, 1, 7, 0, tzinfo=timezone.utc)  # 08:00 local every morning
+    start = datetime(2027, 3, 1, 7, 0, tzinfo=UTC)  # 08:00 local every morning
     adjust_day = 10.0
     readings, true_error, last = [], 1.3, None
     for day in range(31):
         at_utc = start + timedelta(days=day)
-        local = at_utc.astimezone(summer if at_utc >= datetime(2027, 3, 28, 1, tzinfo=timezone.utc)
+        local = at_utc.astimezone(summer if at_utc >= datetime(2027, 3, 28, 1, tzinfo=UTC)
                                   else winter)
         cond = _conditions(day, rng)
         if last is not None:
             seg = 0 if day <= adjust_day else 1
-            mean = [(a + b) / 2.0 for a, b in zip(cond, last[1])]
+            mean = [(a + b) / 2.0 for a, b in zip(cond, last[1], strict=True)]
             rate = (RATES_S_PER_DAY[seg] + K_T * (mean[0] - REFERENCE[0])
                     + K_P * (mean[1] - REFERENCE[1]) + K_A * (mean[2] - REFERENCE[2]))
             if day == adjust_day + 1:

@@ -7,7 +7,7 @@ from __future__ import annotations
 import functools
 import math
 import warnings
-from datetime import datetime, timedelta, timezone
+from datetime import UTC, datetime, timedelta, timezone
 
 import numpy as np
 import pytest
@@ -16,8 +16,12 @@ from scipy.integrate import cumulative_trapezoid, quad, solve_ivp
 from core.errors import DesignError
 from core.rating import Conditions, fit_rating
 from core.rating_log import Adjustment, DecayReading, RatingLog, Reading
-from core.rating_stability import (allan_deviation, fit_quality_factor, large_arc_log,
-                                   phase_allan_deviation)
+from core.rating_stability import (
+    allan_deviation,
+    fit_quality_factor,
+    large_arc_log,
+    phase_allan_deviation,
+)
 
 TZ = timezone(timedelta(hours=1))
 T0 = datetime(2027, 3, 1, 8, 0, tzinfo=TZ)
@@ -38,8 +42,9 @@ def _arc(d: float) -> float:
     return 1.6 + 0.05 * math.sin(d / 2.2 + 1.0)
 
 
-@functools.lru_cache(maxsize=None)
-def _truth() -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray, np.ndarray, tuple[float, ...]]:
+@functools.cache
+def _truth() -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray, np.ndarray,
+                      tuple[float, ...]]:
     """Three segments of readings over 45 days, unevenly spaced; the true error is integrated
     with ``quad`` over the linearly interpolated conditions (a different route from the fit's
     trapezoid sums)."""
@@ -84,7 +89,7 @@ def _independent_fit(log: RatingLog, names: tuple[str, ...]) -> tuple[np.ndarray
     segments = sorted(set(seg))
     rows = []
     for s in segments:
-        members = [r for r, k in zip(log.readings, seg) if k == s]
+        members = [r for r, k in zip(log.readings, seg, strict=True) if k == s]
         days = np.array([(r.at - members[0].at).total_seconds() / 86400.0 for r in members])
         integrals = []
         for name in names:
@@ -92,7 +97,8 @@ def _independent_fit(log: RatingLog, names: tuple[str, ...]) -> tuple[np.ndarray
             have = [getattr(r, name) is not None for r in log.readings]
             vals = np.interp(allx, allx[have], [getattr(r, name) for r in log.readings
                                                 if getattr(r, name) is not None])
-            mine = np.array([v for v, k in zip(vals, seg) if k == s]) - getattr(REF, name)
+            mine = np.array([v for v, k in zip(vals, seg, strict=True) if k == s])
+            mine = mine - getattr(REF, name)
             integrals.append(cumulative_trapezoid(mine, days, initial=0.0))
         for j in range(len(members)):
             row = [1.0 if q == s else 0.0 for q in segments]
@@ -119,7 +125,7 @@ def test_noise_free_log_recovers_the_truth() -> None:
 
 def test_noisy_log_recovers_the_truth_within_three_sigma() -> None:
     fit = fit_rating(_synthetic(0.05, seed=11), REF)
-    for seg, rate in zip(fit.segments, TRUE["rates"]):
+    for seg, rate in zip(fit.segments, TRUE["rates"], strict=True):
         assert seg.rate_sigma_s_per_day is not None and seg.rate_sigma_s_per_day > 0
         assert abs(seg.rate_s_per_day - rate) < 3 * seg.rate_sigma_s_per_day
     for coeff, true in ((fit.temperature, TRUE["k_t"]), (fit.pressure, TRUE["k_p"]),
@@ -271,7 +277,7 @@ def test_uneven_spacing_gives_a_sentence_not_a_number() -> None:
 
 def test_clock_change_does_not_break_even_spacing() -> None:
     summer = timezone(timedelta(hours=2))
-    utc = [datetime(2027, 3, 26, 7, tzinfo=timezone.utc) + timedelta(days=i) for i in range(6)]
+    utc = [datetime(2027, 3, 26, 7, tzinfo=UTC) + timedelta(days=i) for i in range(6)]
     readings = tuple(Reading(t.astimezone(TZ if i < 2 else summer), 0.1 * i)
                      for i, t in enumerate(utc))
     assert allan_deviation(readings).adev is not None

@@ -6,15 +6,23 @@ from __future__ import annotations
 import copy
 import json
 import runpy
-from datetime import datetime, timedelta, timezone
+from datetime import UTC, datetime, timedelta, timezone
 from pathlib import Path
 from typing import Any
 
 import pytest
 
 from core.errors import DesignError
-from core.rating_log import (Adjustment, DecayReading, RatingLog, Reading, rating_log_from_csv,
-                             rating_log_from_dict, rating_log_to_csv, rating_log_to_dict)
+from core.rating_log import (
+    Adjustment,
+    DecayReading,
+    RatingLog,
+    Reading,
+    rating_log_from_csv,
+    rating_log_from_dict,
+    rating_log_to_csv,
+    rating_log_to_dict,
+)
 
 ROOT = Path(__file__).resolve().parents[2]
 DEMO = ROOT / "resources" / "examples" / "rating_log_demo.json"
@@ -47,7 +55,7 @@ def test_design_example_is_read() -> None:
     log = rating_log_from_dict(_raw())
     assert len(log.readings) == 4 and len(log.adjustments) == 2 and len(log.decay) == 2
     r0 = log.readings[0]
-    assert r0.at == datetime(2027, 3, 1, 7, 0, tzinfo=timezone.utc)
+    assert r0.at == datetime(2027, 3, 1, 7, 0, tzinfo=UTC)
     assert (r0.error_s, r0.temperature_c, r0.pressure_hpa, r0.semi_arc_deg) == (
         1.25, 19.5, 1008.0, 1.55)
     assert log.readings[1].temperature_c is None and log.readings[2].temperature_c is None
@@ -185,7 +193,7 @@ def test_csv_bad_rows_are_refused_with_their_number_and_the_rest_kept() -> None:
     assert [(a.what, a.amount) for a in log.adjustments] == [("nut", -0.25)]
     rows = [int(m.split(":")[0].split()[1]) for m in messages]
     assert rows == [3, 4, 5, 7, 8, 9, 10, 12, 14]
-    by_row = dict(zip(rows, messages))
+    by_row = dict(zip(rows, messages, strict=True))
     assert "error_s" in by_row[3] and "not a number" in by_row[3]
     assert "offset" in by_row[4]
     assert "temperature_c" in by_row[5] and "out of range" in by_row[5]

@@ -10,9 +10,15 @@ import pytest
 from core import analyse, design_to_dict, load_design
 from core.errors import DesignError
 from core.rating import Conditions
-from core.rating_model import (TRIM_LIMIT_FRACTION, apply_correction, correction,
-                               default_fit_field, fit_model_to_clock, model_at_conditions,
-                               reference_conditions)
+from core.rating_model import (
+    TRIM_LIMIT_FRACTION,
+    apply_correction,
+    correction,
+    default_fit_field,
+    fit_model_to_clock,
+    model_at_conditions,
+    reference_conditions,
+)
 
 EXAMPLES = Path(__file__).resolve().parents[2] / "resources" / "examples"
 
@@ -25,7 +31,8 @@ def _differences(a: object, b: object, path: str = "") -> list[str]:
     if isinstance(a, dict) and isinstance(b, dict):
         return [d for k in a for d in _differences(a[k], b.get(k), f"{path}.{k}".lstrip("."))]
     if isinstance(a, list) and isinstance(b, list):
-        return [d for i, (x, y) in enumerate(zip(a, b)) for d in _differences(x, y, f"{path}[{i}]")]
+        pairs = enumerate(zip(a, b, strict=False))
+        return [d for i, (x, y) in pairs for d in _differences(x, y, f"{path}[{i}]")]
     return [] if a == b else [path]
 
 

@@ -14,8 +14,13 @@ import pytest
 from core import analyse, load_design
 from core.errors import DesignError
 from core.rating import fit_rating
-from core.rating_log import (DecayReading, RatingLog, Reading, rating_log_from_csv,
-                             rating_log_from_dict)
+from core.rating_log import (
+    DecayReading,
+    RatingLog,
+    Reading,
+    rating_log_from_csv,
+    rating_log_from_dict,
+)
 from core.rating_model import reference_conditions
 from core.rating_report import RATING_KEYS, rating_report, rating_text
 
@@ -56,7 +61,7 @@ def test_demo_log_recovers_its_invented_truth_within_three_sigma() -> None:
     # The truth is what make_rating_demo.py generated the readings from.
     report = rating_report(_design(), _demo())
     truth = [4.2, -0.15]
-    for seg, rate in zip(report["segments"], truth):
+    for seg, rate in zip(report["segments"], truth, strict=True):
         assert abs(seg["rate_s_per_day"] - rate) < 3 * seg["rate_sigma_s_per_day"]
     for key, true in (("temperature_coefficient_s_per_day_per_k", 0.034),
                       ("pressure_coefficient_s_per_day_per_hpa", -0.0105),
