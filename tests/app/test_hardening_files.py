@@ -48,7 +48,7 @@ BROKEN_BYTES: dict[str, tuple[bytes, str, str]] = {
                 "is not UTF-8 text"),
     "another format": (EXAMPLE_TEXT.replace('"penduline-design"', '"other"').encode(),
                        "format", "is not a Penduline design"),
-    "newer version": (EXAMPLE_TEXT.replace('"version": 1', '"version": 7').encode(),
+    "newer version": (EXAMPLE_TEXT.replace('"version": 2', '"version": 7').encode(),
                       "version", "version 7 is newer"),
     "100 kB of nested arrays": (b"[" * 50_000 + b"]" * 50_000, "file", "nested too deeply"),
     "100 kB of nested objects": (b'{"a":' * 16_666 + b"1" + b"}" * 16_666, "file",
@@ -192,7 +192,7 @@ class TestOpeningBrokenFiles:
     def test_the_message_box_is_shown_and_names_the_field(self, edited: MainWindow,
                                                           tmp_path: Path) -> None:
         path = tmp_path / "v9.pendulum.json"
-        path.write_text(EXAMPLE_TEXT.replace('"version": 1', '"version": 9'), encoding="utf-8")
+        path.write_text(EXAMPLE_TEXT.replace('"version": 2', '"version": 9'), encoding="utf-8")
         assert not edited.open_file(path)
         boxes = [b for b in edited.findChildren(QMessageBox) if b.isVisible()]
         assert len(boxes) == 1
