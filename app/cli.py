@@ -79,7 +79,7 @@ def main(argv: Sequence[str] | None = None) -> int:
             args = tools.parse_args(args_list)
             return _COMMAND_RUNNERS[args.command](args)
         args = window.parse_args(args_list)
-        from .launch import run_window
+        from app.launch import run_window
         return run_window(args.file, args.screenshot)
     except DesignError as exc:
         print(f"penduline: {exc.field}: {exc.reason}", file=sys.stderr)
@@ -104,7 +104,7 @@ def _report(args: argparse.Namespace) -> int:
     from core import analyse, load_design
     from core.tuning import budget_ranges
 
-    from .readout_format import rows
+    from app.readout.readout_format import rows
 
     design = load_design(args.file)
     ranges = budget_ranges(args.budget_temperature, args.budget_pressure, args.budget_arc)
@@ -163,7 +163,7 @@ def _sweep(args: argparse.Namespace) -> int:
 
 
 def _export(args: argparse.Namespace) -> int:
-    from .export import export_all
+    from app.report.export import export_all
 
     for path in export_all(args.file, args.out):
         print(path)

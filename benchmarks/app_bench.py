@@ -54,7 +54,7 @@ def _child_window() -> None:
     from PySide6.QtCore import QEvent, QObject
     from PySide6.QtWidgets import QApplication
 
-    from app.main_window import MainWindow
+    from app.window.main_window import MainWindow
 
     imported = _time.perf_counter()
     app = QApplication(sys.argv[:1])

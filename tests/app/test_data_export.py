@@ -11,7 +11,7 @@ import pytest
 
 from core import analyse, load_design
 
-from app.data_export import (MOTION_COLUMNS, PARTS_COLUMNS, PERIOD_CURVE_COLUMNS,
+from app.report.csv_data import (MOTION_COLUMNS, PARTS_COLUMNS, PERIOD_CURVE_COLUMNS,
                              write_motion_csv, write_parts_csv, write_period_curve_csv)
 
 EXAMPLES = Path(__file__).resolve().parents[2] / "resources" / "examples"

@@ -6,7 +6,7 @@ from pathlib import Path
 
 import pytest
 
-from app import design_edits as edits
+from app.form import design_edits as edits
 from core import DesignError, load_design
 
 EXAMPLE = Path(__file__).resolve().parents[2] / "resources/examples/workshop_regulator.pendulum.json"

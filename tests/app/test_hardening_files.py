@@ -23,8 +23,8 @@ from PySide6.QtWidgets import QMessageBox
 
 import core.fileformat as fileformat
 from app.cli import main
-from app.document import read_design_file
-from app.main_window import MainWindow
+from app.document.document import read_design_file
+from app.window.main_window import MainWindow
 from core import DesignError, load_design, with_value
 from core.fileformat import MAX_FILE_BYTES
 

@@ -13,7 +13,7 @@ from PySide6.QtGui import QImage
 from PySide6.QtWidgets import QLabel
 
 from app import theme
-from app.plots import (PLOT_CLASSES, SMALL_PANE_TICK_DENSITY, MotionPlot, PeriodCurvePlot,
+from app.views.base import (PLOT_CLASSES, SMALL_PANE_TICK_DENSITY, MotionPlot, PeriodCurvePlot,
                        PhasePlot, export_plot)
 from core import analyse, load_design, with_value
 

@@ -18,7 +18,7 @@ from core.analysis import LOAD_CAUTION
 from core.fileformat import design_to_dict
 
 from app import theme
-from app.preview import (CAUTION_MARGIN_PX, SPEEDS, SwingPreview, SwingPreviewControls,
+from app.views.swing_preview import (CAUTION_MARGIN_PX, SPEEDS, SwingPreview, SwingPreviewControls,
                          deepest_point_m, outlines_from_bodies)
 
 EXAMPLES = Path(__file__).resolve().parents[2] / "resources" / "examples"

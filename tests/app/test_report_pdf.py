@@ -19,9 +19,9 @@ from PySide6 import QtCore, QtGui
 from core import analyse, load_design
 from core.analysis import LOAD_CAUTION, SPRING_CAUTION
 
-from app.preview import SwingPreview
-from app.readout_format import SECTIONS
-from app.report_pdf import field_label, report_html, widget_image, write_report_pdf
+from app.views.swing_preview import SwingPreview
+from app.readout.readout_format import SECTIONS
+from app.report.pdf import field_label, report_html, widget_image, write_report_pdf
 
 EXAMPLES = Path(__file__).resolve().parents[2] / "resources" / "examples"
 A4_RATIO = 297.0 / 210.0

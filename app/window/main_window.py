@@ -27,19 +27,20 @@ from PySide6.QtWidgets import (QFileDialog, QLabel, QMainWindow, QMenu, QMessage
 from core import Design, DesignError, Result, analyse
 from core.tuning import BudgetRanges, budget_ranges
 
-from . import theme
-from .design_panel import DesignPanel, field_label
-from .document import Document, blank_design, read_design_file
-from .plot_area import PlotArea
-from .plots import MotionPlot, PeriodCurvePlot, PhasePlot, export_plot
-from .preview import SwingPreview
-from .readout_panel import ReadoutPanel
-from .sweep_plot import SweepPlot
-from .recovery import (Autosaver, RecoveryEntry, find_orphans, read_entry, remove_entry,
+from app import theme
+from app.launch import default_design_path
+from app.form.design_panel import DesignPanel, field_label
+from app.document.document import Document, blank_design, read_design_file
+from app.views.plot_area import PlotArea
+from app.views.base import MotionPlot, PeriodCurvePlot, PhasePlot, export_plot
+from app.views.swing_preview import SwingPreview
+from app.readout.readout_panel import ReadoutPanel
+from app.views.sweep import SweepPlot
+from app.document.recovery import (Autosaver, RecoveryEntry, find_orphans, read_entry, remove_entry,
                        set_aside)
-from .settings import (add_recent_file, app_settings, recent_files, store_budget_ranges,
+from app.document.settings import (add_recent_file, app_settings, recent_files, store_budget_ranges,
                        stored_budget_ranges)
-from .units import UnitSystem
+from app.form.units import UnitSystem
 
 __all__ = ["MainWindow", "examples_folder", "example_files", "DESIGN_FILTER"]
 
@@ -50,7 +51,7 @@ DEFAULT_ARRANGEMENT = "tabs"  # one large plot at a time; View ▸ Show plots to
 
 def examples_folder() -> Path:
     """``resources/examples`` beside the ``app`` package."""
-    return Path(__file__).resolve().parent.parent / "resources" / "examples"
+    return default_design_path().parent
 
 
 def example_files() -> list[Path]:
@@ -498,7 +499,7 @@ class MainWindow(QMainWindow):
 
     def export_all(self, folder: str | Path) -> list[Path]:
         """Write every plot, the CSV data and the PDF report of the current result."""
-        from .export import export_result
+        from app.report.export import export_result
 
         self.compute_now()
         if self.result is None:

@@ -19,9 +19,9 @@ from PySide6.QtGui import QBrush, QColor, QFont, QShowEvent
 from PySide6.QtWidgets import (QFrame, QHBoxLayout, QHeaderView, QLabel, QScrollArea,
                                QSplitter, QTreeWidget, QTreeWidgetItem, QVBoxLayout, QWidget)
 
-from .number_field import NumberField
-from .readout_format import SECTIONS, describe, format_value
-from .units import UnitSystem, field_unit, readout_unit
+from app.form.number_field import NumberField
+from app.readout.readout_format import SECTIONS, describe, format_value
+from app.form.units import UnitSystem, field_unit, readout_unit
 
 __all__ = ["ReadoutPanel", "BUDGET_RANGES"]
 

@@ -16,7 +16,7 @@ from PySide6.QtCore import QSize, Qt, QTimer, Signal
 from PySide6.QtGui import QFocusEvent, QKeyEvent, QMouseEvent, QValidator, QWheelEvent
 from PySide6.QtWidgets import QAbstractSpinBox, QWidget
 
-from .units import FieldUnit
+from app.form.units import FieldUnit
 
 __all__ = ["NumberField", "NumberTextError", "parse_number", "format_number"]
 

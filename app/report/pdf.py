@@ -19,8 +19,8 @@ from PySide6 import QtCore, QtGui, QtWidgets
 from core.analysis import LOAD_CAUTION, SPRING_CAUTION
 from core.fileformat import design_to_dict
 
-from .atomic_files import atomic_path
-from .readout_format import SECTIONS, format_value
+from app.report.atomic_files import atomic_path
+from app.readout.readout_format import SECTIONS, format_value
 
 __all__ = ["write_report_pdf", "report_html", "widget_image", "field_label"]
 

@@ -78,8 +78,8 @@ def _plot_widgets(result: Any, app: Any) -> list[Any]:
     """The three plots and the swing preview, drawn without appearing on any screen."""
     from PySide6 import QtCore
 
-    from .plots import MotionPlot, PeriodCurvePlot, PhasePlot
-    from .preview import SwingPreview
+    from app.views.base import MotionPlot, PeriodCurvePlot, PhasePlot
+    from app.views.swing_preview import SwingPreview
 
     widgets: list[Any] = [MotionPlot(), PhasePlot(), PeriodCurvePlot(), SwingPreview()]
     for w in widgets:
@@ -106,7 +106,7 @@ def _write(path: Path, writer: Callable[[Path], Any]) -> Path:
     ``DesignError(field="out")``."""
     from core import DesignError
 
-    from .atomic_files import atomic_path
+    from app.report.atomic_files import atomic_path
 
     try:
         with atomic_path(path) as tmp:
@@ -148,9 +148,9 @@ def export_result(result: Any, out_dir: str | os.PathLike[str], source_name: str
     core.DesignError
         ``field="out"`` when the output cannot be written.
     """
-    from . import data_export
-    from .plots import export_plot
-    from .report_pdf import widget_image
+    from app.report import csv_data as data_export
+    from app.views.base import export_plot
+    from app.report.pdf import widget_image
 
     app = ensure_application()
     out = _output_dir(out_dir)
@@ -176,7 +176,7 @@ def export_result(result: Any, out_dir: str | os.PathLike[str], source_name: str
 
 def _write_report(result: Any, images: dict[str, Any], captions: dict[str, str],
                   source_name: str, path: Path) -> Path:
-    from .report_pdf import write_report_pdf
+    from app.report.pdf import write_report_pdf
 
     return write_report_pdf(result, path, images, captions=captions, source_name=source_name)
 

@@ -20,7 +20,7 @@ from typing import Any, Iterable, Sequence
 
 import numpy as np
 
-from .atomic_files import write_text_atomic
+from app.report.atomic_files import write_text_atomic
 
 __all__ = ["MOTION_COLUMNS", "PERIOD_CURVE_COLUMNS", "PARTS_COLUMNS", "motion_csv",
            "period_curve_csv", "parts_csv", "write_motion_csv", "write_period_curve_csv",

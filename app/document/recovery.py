@@ -33,7 +33,7 @@ from PySide6.QtCore import QLockFile, QObject, QStandardPaths, QTimer, Signal
 from core import Design, DesignError, dumps_design
 from core.fileformat import write_text_atomic
 
-from .document import Document, read_design_file
+from app.document.document import Document, read_design_file
 
 __all__ = ["AUTOSAVE_INTERVAL_S", "DATA_DIR_ENV", "RECOVERY_FORMAT", "Autosaver",
            "RecoveryEntry", "data_folder", "find_orphans", "read_entry", "recovery_folder",

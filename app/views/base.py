@@ -31,7 +31,7 @@ from PySide6.QtGui import QAction, QColor, QPainter
 from PySide6.QtWidgets import (QCheckBox, QComboBox, QFileDialog, QGraphicsEllipseItem,
                                QGraphicsItem, QHBoxLayout, QLabel, QWidget)
 
-from . import theme
+from app import theme
 
 __all__ = ["MotionPlot", "PhasePlot", "PeriodCurvePlot", "PLOT_CLASSES", "export_plot",
            "style_axis", "PERIOD_QUANTITIES"]

@@ -27,9 +27,9 @@ from core import DesignError, design_to_dict
 from core.fileformat import field_range
 from core.solve import sweep_field
 
-from . import theme
-from .design_panel import FIELD_LABELS
-from .plots import export_plot, style_axis
+from app import theme
+from app.form.design_panel import FIELD_LABELS
+from app.views.base import export_plot, style_axis
 
 __all__ = ["SweepPlot", "SweepField", "sweep_fields", "default_range", "PIVOT",
            "SWEEP_POINTS", "SWEEP_INTERVAL_MS"]

@@ -20,10 +20,10 @@ from core import Design, DesignError, design_to_dict
 from core.fileformat import get_value
 from core.materials import MATERIALS
 
-from . import design_edits
-from .document import Document
-from .field_rows import ChoiceRow, NumberRow, Row, TextRow
-from .units import UnitSystem
+from app.form import design_edits
+from app.document.document import Document
+from app.form.field_rows import ChoiceRow, NumberRow, Row, TextRow
+from app.form.units import UnitSystem
 
 __all__ = ["DesignPanel", "FIELD_LABELS"]
 

@@ -13,8 +13,8 @@ from PySide6.QtCore import Qt, Signal
 from PySide6.QtWidgets import (QCheckBox, QComboBox, QHBoxLayout, QLabel, QLineEdit,
                                QSizePolicy, QVBoxLayout, QWidget)
 
-from .number_field import NumberField, format_number
-from .units import UnitSystem, field_unit
+from app.form.number_field import NumberField, format_number
+from app.form.units import UnitSystem, field_unit
 
 __all__ = ["Row", "NumberRow", "ChoiceRow", "TextRow"]
 

@@ -36,8 +36,8 @@ from PySide6 import QtCore, QtGui, QtWidgets
 
 from core.analysis import LOAD_CAUTION, SPRING_CAUTION
 
-from . import theme
-from .plots import DRAG_MARGIN, KEEP_FILL, STREAM_SETTLE_MS, style_axis
+from app import theme
+from app.views.base import DRAG_MARGIN, KEEP_FILL, STREAM_SETTLE_MS, style_axis
 
 __all__ = ["SwingPreview", "SwingPreviewControls", "Outline", "outlines_from_bodies",
            "deepest_point_m", "SPEEDS", "TimeSource", "WallClock"]
