@@ -9,8 +9,9 @@ import argparse
 import json
 import os
 import sys
+from collections.abc import Sequence
 from pathlib import Path
-from typing import Any, Sequence
+from typing import Any
 
 __all__ = ["main"]
 
@@ -101,10 +102,9 @@ def main(argv: Sequence[str] | None = None) -> int:
 
 
 def _report(args: argparse.Namespace) -> int:
+    from app.readout.readout_format import rows
     from core import analyse, load_design
     from core.tuning import budget_ranges
-
-    from app.readout.readout_format import rows
 
     design = load_design(args.file)
     ranges = budget_ranges(args.budget_temperature, args.budget_pressure, args.budget_arc)
@@ -157,7 +157,7 @@ def _sweep(args: argparse.Namespace) -> int:
 
     table = sweep_field(load_design(args.file), args.vary, args.start, args.stop, args.points)
     print(f"{table.field},period_s,rate_s_per_day")
-    for x, t, r in zip(table.values, table.period_s, table.rate_s_per_day):
+    for x, t, r in zip(table.values, table.period_s, table.rate_s_per_day, strict=True):
         print(f"{x:.9g},{'' if t != t else f'{t:.12g}'},{'' if r != r else f'{r:.6f}'}")
     return 0
 

@@ -58,8 +58,8 @@ def _open_window(arrangement: str):  # type: ignore[no-untyped-def]
     application, the window and the rod-length field."""
     from PySide6.QtWidgets import QApplication
 
-    from app.window.main_window import MainWindow
     from app.form.number_field import NumberField
+    from app.window.main_window import MainWindow
     from core import load_design
 
     app = QApplication.instance() or QApplication(sys.argv[:1])
@@ -134,7 +134,7 @@ class _FrameCounter:
         counter = self
 
         class Filter(QObject):
-            def eventFilter(self, _obj, event) -> bool:  # type: ignore[no-untyped-def]  # noqa: N802
+            def eventFilter(self, _obj, event) -> bool:  # type: ignore[no-untyped-def]
                 if event.type() == QEvent.Type.Paint:
                     counter.seen(preview.time_s)
                 return False

@@ -9,38 +9,36 @@ row with the core's reason while the document keeps its last valid design.
 
 from __future__ import annotations
 
-from typing import Any, Callable
+from collections.abc import Callable
+from functools import partial
+from typing import Any
 
 from PySide6.QtCore import Qt, Signal
-from PySide6.QtWidgets import (QFormLayout, QGroupBox, QHBoxLayout, QLabel, QListWidget,
-                               QListWidgetItem, QMenu, QPushButton, QScrollArea,
-                               QVBoxLayout, QWidget)
+from PySide6.QtWidgets import (
+    QFormLayout,
+    QGroupBox,
+    QHBoxLayout,
+    QLabel,
+    QListWidget,
+    QListWidgetItem,
+    QMenu,
+    QPushButton,
+    QScrollArea,
+    QVBoxLayout,
+    QWidget,
+)
 
+from app.document.document import Document
+from app.form import design_edits
+from app.form.field_rows import ChoiceRow, NumberRow, Row, TextRow
+from app.form.labels import FIELD_LABELS, field_label
+from app.form.units import UnitSystem
 from core import Design, DesignError, design_to_dict
 from core.fileformat import get_value
 from core.materials import MATERIALS
 
-from app.form import design_edits
-from app.document.document import Document
-from app.form.field_rows import ChoiceRow, NumberRow, Row, TextRow
-from app.form.units import UnitSystem
+__all__ = ["DesignPanel", "FIELD_LABELS", "field_label"]
 
-__all__ = ["DesignPanel", "FIELD_LABELS"]
-
-FIELD_LABELS = {
-    "name": "Name", "reference_temperature_c": "Reference temperature",
-    "latitude_deg": "Latitude", "elevation_m": "Elevation", "g_m_s2": "Local gravity",
-    "temperature_c": "Temperature", "pressure_hpa": "Air pressure",
-    "kind": "Kind", "stiffness_n_m_per_rad": "Spring stiffness",
-    "material": "Material", "top_m": "Top, below pivot", "length_m": "Length",
-    "diameter_m": "Diameter", "mass_kg": "Mass", "on": "Carried by",
-    "outer_diameter_m": "Outer diameter", "inner_diameter_m": "Inner diameter",
-    "shape": "Shape", "thickness_m": "Thickness", "height_m": "Height",
-    "centre_m": "Centre, below pivot", "at_m": "Position, below pivot",
-    "amplitude_deg": "Semi-arc", "quality_factor": "Q factor",
-    "period_s": "Target period", "beats_per_hour": "Target beats",
-    "pitch_m": "Rating nut pitch",
-}
 
 _SHAPES = [("lens", "Lens"), ("disc", "Disc"), ("cylinder", "Cylinder"), ("sphere", "Sphere")]
 _MOUNTS = [("clamp", "Clamped to a rod"), ("on_sleeve", "Resting on a sleeve")]
@@ -48,11 +46,6 @@ _SUSPENSIONS = [("knife_edge", "Knife edge"), ("spring", "Suspension spring")]
 _TARGETS = [("period", "Period"), ("beats_per_hour", "Beats per hour"), ("none", "No target")]
 _UNSET_TEXT = {"quality_factor": "no damping", "pitch_m": "no nut"}
 _OPTIONAL_DEFAULTS = {"quality_factor": 10000.0, "pitch_m": 0.001, "g_m_s2": 9.80665}
-
-
-def field_label(path: str) -> str:
-    """A plain label for a field path (``parts[2].mount.centre_m`` → “Centre, below pivot”)."""
-    return FIELD_LABELS.get(path.rsplit(".", 1)[-1], path)
 
 
 class DesignPanel(QScrollArea):
@@ -426,16 +419,16 @@ class DesignPanel(QScrollArea):
         design = self.document.design
         text = f"Change {field_label(path).lower()}"
         if path == "suspension.kind":
-            make: Callable[[], Design] = lambda: design_edits.set_suspension_kind(design, key)
+            make: Callable[[], Design] = partial(design_edits.set_suspension_kind, design, key)
         elif path == "target.kind":
-            make = lambda: design_edits.set_target_kind(design, key)  # noqa: E731
+            make = partial(design_edits.set_target_kind, design, key)
         elif path.endswith(".shape"):
-            make = lambda: design_edits.set_bob_shape(design, self._selected, key)  # noqa: E731
+            make = partial(design_edits.set_bob_shape, design, self._selected, key)
         elif path.endswith(".mount.kind"):
-            make = lambda: design_edits.set_bob_mount(design, self._selected, key)  # noqa: E731
+            make = partial(design_edits.set_bob_mount, design, self._selected, key)
             text = "Change mounting"
         else:
-            make = lambda: design_edits.set_value(design, path, key)  # noqa: E731
+            make = partial(design_edits.set_value, design, path, key)
         if not self._apply(make, path, text):
             self._write_values(self.document.design)
             self._mark_again(path)

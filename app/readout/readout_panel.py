@@ -16,12 +16,22 @@ from typing import Any
 
 from PySide6.QtCore import QSize, Qt, Signal
 from PySide6.QtGui import QBrush, QColor, QFont, QShowEvent
-from PySide6.QtWidgets import (QFrame, QHBoxLayout, QHeaderView, QLabel, QScrollArea,
-                               QSplitter, QTreeWidget, QTreeWidgetItem, QVBoxLayout, QWidget)
+from PySide6.QtWidgets import (
+    QFrame,
+    QHBoxLayout,
+    QHeaderView,
+    QLabel,
+    QScrollArea,
+    QSplitter,
+    QTreeWidget,
+    QTreeWidgetItem,
+    QVBoxLayout,
+    QWidget,
+)
 
 from app.form.number_field import NumberField
-from app.readout.readout_format import SECTIONS, describe, format_value
 from app.form.units import UnitSystem, field_unit, readout_unit
+from app.readout.readout_format import SECTIONS, describe, format_value
 
 __all__ = ["ReadoutPanel", "BUDGET_RANGES"]
 
@@ -217,7 +227,7 @@ class ReadoutPanel(QWidget):
         if item.sizeHint(1).height() != height:
             item.setSizeHint(1, QSize(field.minimumSizeHint().width(), height))
 
-    def showEvent(self, event: QShowEvent) -> None:  # noqa: N802 (Qt name)
+    def showEvent(self, event: QShowEvent) -> None:  # Qt override
         """The entries have their final style once shown: fit their rows to it."""
         for key in self._range_items:
             self._fit_range_row(key)

@@ -9,9 +9,9 @@ from __future__ import annotations
 
 import os
 import uuid
+from collections.abc import Iterator
 from contextlib import contextmanager
 from pathlib import Path
-from typing import Iterator
 
 __all__ = ["write_bytes_atomic", "write_text_atomic", "atomic_path"]
 

@@ -11,16 +11,16 @@ from __future__ import annotations
 import datetime as _dt
 import html
 import os
+from collections.abc import Mapping, Sequence
 from pathlib import Path
-from typing import Any, Mapping, Sequence
+from typing import Any
 
 from PySide6 import QtCore, QtGui, QtWidgets
 
+from app.readout.readout_format import SECTIONS, format_value
+from app.report.atomic_files import atomic_path
 from core.analysis import LOAD_CAUTION, SPRING_CAUTION
 from core.fileformat import design_to_dict
-
-from app.report.atomic_files import atomic_path
-from app.readout.readout_format import SECTIONS, format_value
 
 __all__ = ["write_report_pdf", "report_html", "widget_image", "field_label"]
 
@@ -93,7 +93,7 @@ def _fields_text(d: Mapping[str, Any], skip: Sequence[str] = ()) -> str:
 def _table(header: Sequence[str], rows: Sequence[Sequence[str]], widths: Sequence[int] = ()
            ) -> str:
     cols = "".join(f"<th width='{w}%'>{h}</th>" if widths else f"<th>{h}</th>"
-                   for h, w in zip(header, widths or [0] * len(header)))
+                   for h, w in zip(header, widths or [0] * len(header), strict=False))
     body = "".join("<tr>" + "".join(cell for cell in row) + "</tr>" for row in rows)
     return (f"<table class='grid' width='100%' cellspacing='0' cellpadding='3'>"
             f"<tr>{cols}</tr>{body}</table>")

@@ -12,130 +12,76 @@ view, only when the design or the sweep's own settings changed, and at most once
 
 from __future__ import annotations
 
-import math
-from dataclasses import dataclass
+from pathlib import Path
 from typing import Any
 
 import numpy as np
-import pyqtgraph as pg
-from PySide6.QtCore import QSize, Qt, QTimer
-from PySide6.QtGui import QAction
-from PySide6.QtWidgets import (QComboBox, QDoubleSpinBox, QGraphicsEllipseItem, QGraphicsItem,
-                               QGridLayout, QLabel, QPushButton, QVBoxLayout, QWidget)
-
-from core import DesignError, design_to_dict
-from core.fileformat import field_range
-from core.solve import sweep_field
+from PySide6.QtCore import QSignalBlocker, QSize, QTimer
+from PySide6.QtWidgets import (
+    QComboBox,
+    QDoubleSpinBox,
+    QGridLayout,
+    QLabel,
+    QPushButton,
+    QVBoxLayout,
+    QWidget,
+)
 
 from app import theme
-from app.form.design_panel import FIELD_LABELS
-from app.views.base import export_plot, style_axis
+from app.views.plot_export import export_plot
+from app.views.sweep_canvas import SweepCanvas
+from app.views.sweep_fields import (
+    PIVOT,
+    QUANTITIES,
+    SWEEP_INTERVAL_MS,
+    SWEEP_POINTS,
+    SweepField,
+    default_range,
+    sweep_fields,
+)
+from core import Design, DesignError, Result
+from core.solve import SweepTable, sweep_field
 
 __all__ = ["SweepPlot", "SweepField", "sweep_fields", "default_range", "PIVOT",
            "SWEEP_POINTS", "SWEEP_INTERVAL_MS"]
 
-PIVOT = "pivot"  # core.solve.sweep_field's name for moving the pivot down the pendulum
-SWEEP_POINTS = 101
-SWEEP_INTERVAL_MS = 60
-AROUND_FRACTION = 0.2  # default range: ±20 % around the current value
-PIVOT_RANGE = (-0.1, 1.0)  # default pivot range, as fractions of the deepest rod end
-QUANTITIES = (("period", "Period (s)"), ("rate", "Rate (s/day)"))
-_SWEPT_KEYS = ("length_m", "at_m", "top_m", "mass_kg")  # in the order offered
-_UNITS = {"m": "m", "kg": "kg", "n_m_per_rad": "N·m/rad"}
-NOTE_COLOUR = "#6b7178"  # a plain remark, not a refusal
-
-
-@dataclass(frozen=True)
-class SweepField:
-    """One field that can be swept: its path (as in the design file, or ``"pivot"``), a
-    label, its unit and its value in the current design (SI)."""
-
-    path: str
-    label: str
-    unit: str
-    value: float
-
-
-def _unit(key: str) -> str:
-    for suffix, unit in _UNITS.items():
-        if key.endswith("_" + suffix):
-            return unit
-    return ""
-
-
-def sweep_fields(design: Any) -> list[SweepField]:
-    """The fields of ``design`` worth sweeping: each part's position, length and (given)
-    mass, a clamped bob's centre, the spring's stiffness, and the pivot's position."""
-    data = design_to_dict(design)
-    out: list[SweepField] = []
-    for i, part in enumerate(data.get("parts", [])):
-        name = part.get("name", f"part {i + 1}")
-        entries = [(f"parts[{i}].{k}", k, part[k]) for k in _SWEPT_KEYS if k in part]
-        mount = part.get("mount")
-        if isinstance(mount, dict) and "centre_m" in mount:
-            entries.insert(0, (f"parts[{i}].mount.centre_m", "centre_m", mount["centre_m"]))
-        for path, key, value in entries:
-            if isinstance(value, (int, float)) and not isinstance(value, bool):
-                label = FIELD_LABELS.get(key, key)
-                if key == "centre_m" and part.get("kind") == "bob":
-                    label = "Bob centre, below pivot"
-                out.append(SweepField(path, f"{name}: {label}", _unit(key), float(value)))
-    suspension = data.get("suspension", {})
-    if suspension.get("kind") == "spring":
-        out.append(SweepField("suspension.stiffness_n_m_per_rad", "Spring stiffness",
-                              "N·m/rad", float(suspension["stiffness_n_m_per_rad"])))
-    out.append(SweepField(PIVOT, "Pivot position along the pendulum", "m", 0.0))
-    return out
-
-
-def _longest_rod_end(design: Any) -> float:
-    """The deepest rod end below the pivot, m (the reference length for the pivot sweep)."""
-    ends = [p.top_m + p.length_m for p in design.parts if p.kind == "rod"]
-    return max(ends) if ends else 1.0
-
-
-def default_range(design: Any, field: SweepField) -> tuple[float, float]:
-    """The range swept unless the person sets one: ±20 % around the current value (inside
-    the field's allowed range); for the pivot, from −0.1 L to L, L the deepest rod end."""
-    if field.path == PIVOT:
-        length = _longest_rod_end(design)
-        return PIVOT_RANGE[0] * length, PIVOT_RANGE[1] * length
-    half = abs(field.value) * AROUND_FRACTION or AROUND_FRACTION * _longest_rod_end(design)
-    lo, hi = field.value - half, field.value + half
-    allowed_lo, allowed_hi, lo_open, hi_open = field_range(field.path)
-    if lo <= allowed_lo:
-        lo = allowed_lo + (abs(field.value) * 1e-3 if lo_open or allowed_lo == 0 else 0.0)
-    return lo, min(hi, allowed_hi)
-
-
 class SweepPlot(QWidget):
     """Period or rate against one field of the design (see the module notes).
 
-    Shares the plots' API: ``show_result(result, baseline=None)``, ``title``, ``slug`` and a
-    ``plotItem`` for :func:`app.plots.export_plot`. The baseline is not swept.
+    Follows the view shape (:class:`app.views.base.View`): ``title``, ``slug``,
+    ``show_result(result, baseline)``, ``export(path)``; its plot is a :class:`SweepCanvas`
+    (a :class:`~app.views.base.ResultView`, whose export menu it has) under a control bar of
+    two rows, above the plot rather than over its title row. The baseline is not swept.
     """
 
     title = "Sweep"
     slug = "sweep"
     grid_member = False  # a study with its own controls: a tab of its own, not a grid cell
+    in_report = False  # depends on choices made on screen; not in the headless export
+    caption = ""
 
     def __init__(self, parent: QWidget | None = None) -> None:
         super().__init__(parent)
         self.setMinimumSize(QSize(240, 180))
-        self._result: Any = None
+        self._result: Result | None = None
         self._fields: list[SweepField] = []
         self._path = ""
         self._range_auto = True
         self._quantity = "period"
         self._shown_key: tuple[Any, ...] | None = None
-        self.table: Any = None  # the last core.solve.SweepTable drawn
+        self.table: SweepTable | None = None  # the last sweep drawn
         self.sweep_count = 0
         self._timer = QTimer(self)
         self._timer.setSingleShot(True)
         self._timer.setInterval(SWEEP_INTERVAL_MS)
         self._timer.timeout.connect(self.sweep_now)
         self._build_controls()
-        self._build_plot()
+        self.plot = SweepCanvas()
+        self.plotItem = self.plot.getPlotItem()
+        c = self.plot  # its items, by the names the sweep has always used
+        self.curve, self.marker, self.dot, self.least_dot = c.curve, c.marker, c.dot, c.least_dot
+        self.marker_label, self.least_label = c.marker_label, c.least_label
+        self.conjugate, self.conjugate_label, self.note = c.conjugate, c.conjugate_label, c.note
         layout = QVBoxLayout(self)
         layout.setContentsMargins(0, 0, 0, 0)
         layout.setSpacing(0)
@@ -189,63 +135,18 @@ class SweepPlot(QWidget):
         box.valueChanged.connect(self._on_range_edited)
         return box
 
-    def _build_plot(self) -> None:
-        self.plot = pg.PlotWidget(background=theme.PLOT_BACKGROUND)
-        self.plotItem = self.plot.getPlotItem()
-        item = self.plotItem
-        item.setTitle("Sweep", color=theme.INK, size="10pt")
-        for name in ("left", "bottom"):
-            style_axis(item.getAxis(name))
-        self.curve = pg.PlotCurveItem(pen=pg.mkPen(theme.EXACT, width=2.0), antialias=False)
-        item.addItem(self.curve)
-        self.marker = pg.InfiniteLine(angle=90, movable=False,
-                                      pen=pg.mkPen(theme.MARKER, width=1.0,
-                                                   style=Qt.PenStyle.DashLine))
-        item.addItem(self.marker, ignoreBounds=True)
-        # Pivot sweep: the conjugate pivot, where the turned-over pendulum keeps the period.
-        self.conjugate = pg.InfiniteLine(angle=90, movable=False,
-                                         pen=pg.mkPen(theme.DIFFERENCE, width=1.0,
-                                                      style=Qt.PenStyle.DotLine))
-        self.conjugate_label = pg.InfLineLabel(self.conjugate, "", position=0.9,
-                                               anchors=[(1.03, 0.5), (1.03, 0.5)],
-                                               color=theme.DIFFERENCE,
-                                               fill=pg.mkBrush(252, 251, 248, 225))
-        item.addItem(self.conjugate, ignoreBounds=True)
-        self.conjugate.setVisible(False)
-        self.dot = _dot(theme.MARKER)
-        self.least_dot = _dot(theme.DIFFERENCE)
-        self.marker_label = pg.TextItem("", color=theme.MARKER, anchor=(0, 1),
-                                        fill=pg.mkBrush(252, 251, 248, 225))
-        self.least_label = pg.TextItem("", color=theme.DIFFERENCE, anchor=(0.5, -0.3),
-                                       fill=pg.mkBrush(252, 251, 248, 225))
-        for extra in (self.dot, self.least_dot, self.marker_label, self.least_label):
-            extra.setZValue(6)
-            item.vb.addItem(extra, ignoreBounds=True)
-        self.note = pg.TextItem("", color=NOTE_COLOUR, anchor=(0, 0))
-        self.note.setParentItem(item.vb)
-        self.note.setPos(8, 8)
-        menu = item.vb.menu
-        menu.addSeparator()
-        for suffix, text in ((".png", "Export PNG…"), (".svg", "Export SVG…")):
-            action = QAction(text, menu)
-            action.triggered.connect(lambda _=False, s=suffix: self._ask_export(s))
-            menu.addAction(action)
+    def export(self, path: str | Path) -> Path:
+        """Write the sweep's plot to ``path`` (.png or .svg); returns the path."""
+        return export_plot(self, path)
 
-    def _ask_export(self, suffix: str) -> None:
-        from pathlib import Path
+    def attach_controls(self) -> None:
+        """Nothing to add: the sweep's controls are always shown."""
 
-        from PySide6.QtWidgets import QFileDialog
-
-        kind = "PNG image (*.png)" if suffix == ".png" else "SVG drawing (*.svg)"
-        name, _ = QFileDialog.getSaveFileName(self, "Export sweep", f"{self.slug}{suffix}",
-                                              kind)
-        if name:
-            path = Path(name)
-            export_plot(self, path if path.suffix.lower() == suffix
-                        else path.with_name(path.name + suffix))
+    def pose_for_export(self) -> None:
+        """Nothing moves in a sweep."""
 
     # ================================================================== public API
-    def show_result(self, result: Any, baseline: Any = None) -> None:
+    def show_result(self, result: Result, baseline: Result | None = None) -> None:
         """Sweep ``result.design`` (the baseline is not swept).
 
         Shown: swept after at most ``SWEEP_INTERVAL_MS`` (however many results arrive
@@ -276,7 +177,7 @@ class SweepPlot(QWidget):
         except DesignError as exc:
             self.table = None
             self.curve.setData([], [])
-            self._set_note(f"Cannot sweep: {exc.reason}")
+            self.plot.set_note(f"Cannot sweep: {exc.reason}")
             return
         self.sweep_count += 1
         self.table = table
@@ -306,9 +207,8 @@ class SweepPlot(QWidget):
     def set_range(self, start: float, stop: float) -> None:
         """Sweep from ``start`` to ``stop`` (SI); kept until :meth:`reset_range`."""
         for box, value in ((self.start_box, start), (self.stop_box, stop)):
-            box.blockSignals(True)
-            box.setValue(float(value))
-            box.blockSignals(False)
+            with QSignalBlocker(box):
+                box.setValue(float(value))
         self._range_auto = False
         self._settings_changed()
 
@@ -330,9 +230,8 @@ class SweepPlot(QWidget):
         self._quantity = key
         index = self.quantity_box.findData(key)
         if self.quantity_box.currentIndex() != index:
-            self.quantity_box.blockSignals(True)
-            self.quantity_box.setCurrentIndex(index)
-            self.quantity_box.blockSignals(False)
+            with QSignalBlocker(self.quantity_box):
+                self.quantity_box.setCurrentIndex(index)
         self._draw()
 
     def least_period_value(self) -> float | None:
@@ -345,24 +244,24 @@ class SweepPlot(QWidget):
         return float(self.table.values[int(np.nanargmin(periods))])
 
     # ================================================================== internals
-    def _update_fields(self, design: Any) -> None:
+    def _update_fields(self, design: Design) -> None:
         """Offer the fields of ``design``; keep the chosen one when it is still there."""
         fields = sweep_fields(design)
         same_choices = [(f.path, f.label) for f in fields] == [(f.path, f.label)
                                                                for f in self._fields]
         self._fields = fields
         if not same_choices:
-            self.field_box.blockSignals(True)
-            self.field_box.clear()
-            for f in fields:
-                self.field_box.addItem(f"{f.label} ({f.unit})" if f.unit else f.label, f.path)
-            index = self.field_box.findData(self._path)
-            if index < 0:
-                index = 0
-                self._path = fields[0].path
-                self._range_auto = True
-            self.field_box.setCurrentIndex(index)
-            self.field_box.blockSignals(False)
+            with QSignalBlocker(self.field_box):
+                self.field_box.clear()
+                for f in fields:
+                    self.field_box.addItem(f"{f.label} ({f.unit})" if f.unit else f.label,
+                                           f.path)
+                index = self.field_box.findData(self._path)
+                if index < 0:
+                    index = 0
+                    self._path = fields[0].path
+                    self._range_auto = True
+                self.field_box.setCurrentIndex(index)
         self.unit_label.setText(self.field().unit)
         if self._range_auto:
             self._apply_default_range()
@@ -372,10 +271,9 @@ class SweepPlot(QWidget):
             return
         start, stop = default_range(self._result.design, self.field())
         for box, value in ((self.start_box, start), (self.stop_box, stop)):
-            box.blockSignals(True)
-            box.setSingleStep(max(abs(stop - start) / 20.0, 1e-6))
-            box.setValue(value)
-            box.blockSignals(False)
+            with QSignalBlocker(box):
+                box.setSingleStep(max(abs(stop - start) / 20.0, 1e-6))
+                box.setValue(value)
 
     def _on_field_chosen(self, index: int) -> None:
         if not 0 <= index < len(self._fields):
@@ -397,10 +295,6 @@ class SweepPlot(QWidget):
             self._timer.start()
         else:
             self.sweep_now()
-
-    def _set_note(self, text: str) -> None:
-        self.note.setText(text)
-        self.note.setVisible(bool(text))
 
     def _draw(self) -> None:
         """Draw the last sweep in the chosen quantity and mark the current value (and, for
@@ -428,16 +322,17 @@ class SweepPlot(QWidget):
         self.curve.setData(xs, ys, connect="finite")
         gaps = int(np.count_nonzero(~np.isfinite(ys)))
         if not np.any(np.isfinite(ys)):
-            self._set_note("No rate without a target period: set one in Target, or show "
+            self.plot.set_note("No rate without a target period: set one in Target, or show "
                            "the period." if rate else "No value in this range gives a "
                            "usable design.")
         elif gaps:
-            self._set_note(f"{gaps} of {len(ys)} values give no usable design (gaps).")
+            self.plot.set_note(f"{gaps} of {len(ys)} values give no usable design (gaps).")
         else:
-            self._set_note("")
-        self._mark_current(result, rate, field)
-        self._mark_least(xs, ys, table, "" if field is None else field.unit)
-        self._mark_conjugate(result, field is None or field.path == PIVOT)
+            self.plot.set_note("")
+        self.plot.mark_current(result, rate, field, self.sweep_range())
+        self.plot.mark_least(xs, ys, table, "" if field is None else field.unit,
+                             self.least_period_value(), rate)
+        self.plot.mark_conjugate(result, field is None or field.path == PIVOT)
         finite = ys[np.isfinite(ys)]
         vb = item.vb
         vb.setXRange(float(xs[0]), float(xs[-1]), padding=0.02)
@@ -451,71 +346,6 @@ class SweepPlot(QWidget):
         if self.isVisible():
             vb.prepareForPaint()
 
-    def _mark_current(self, result: Any, rate: bool, field: SweepField | None) -> None:
-        """The current value: a line, and a dot at the core's own figure for the design."""
-        value = 0.0 if field is None else field.value
-        here: float | None = result.period_s
-        if rate and result.design.target.target_period_s is not None:
-            here = result.rate_s_per_day
-        elif rate:  # against the design as it is, the design itself is the zero
-            here = None if field is None or field.path == PIVOT else 0.0
-        self.marker.setValue(value)
-        shown = here is not None and math.isfinite(here)
-        self.dot.setVisible(shown)
-        self.marker_label.setVisible(shown)
-        if here is not None and shown:
-            self.dot.setPos(value, here)
-            self.marker_label.setPos(value, here)
-            at = ("as designed" if field is None or field.path == PIVOT
-                  else f"now {value:.4g} {field.unit}".rstrip())
-            self.marker_label.setText(f"{at}: " + (f"{here:+.2f} s/day" if rate
-                                                   else f"{here:.6f} s"))
-            self.marker_label.setAnchor(self._label_anchor(value))
-
-    def _label_anchor(self, value: float) -> tuple[float, float]:
-        """Where the current value's label goes, clear of the curve: beside the mark on the
-        side with more room, below the curve where it rises that way, above where it falls."""
-        xs, ys = (np.asarray(a, dtype=float) for a in self.curve.getData())
-        lo, hi = self.sweep_range()
-        right = value <= lo + 0.6 * (hi - lo)  # the label goes right of the mark
-        i = int(np.clip(np.searchsorted(xs, value), 1, len(xs) - 1)) if len(xs) > 1 else 0
-        near = ys[max(i - 2, 0):i + 2]
-        near = near[np.isfinite(near)]
-        rising = bool(near.size < 2 or near[-1] >= near[0])
-        below = rising == right  # the curve climbs away from the label's side
-        return (-0.03 if right else 1.03, -0.1 if below else 1.1)
-
-    def _mark_least(self, xs: np.ndarray, ys: np.ndarray, table: Any, unit: str) -> None:
-        """For the pivot sweep, the value of least period (the core's sample of least
-        period, picked out here)."""
-        least = self.least_period_value()
-        self.least_dot.setVisible(least is not None)
-        self.least_label.setVisible(least is not None)
-        if least is None:
-            return
-        i = int(np.nanargmin(np.asarray(table.period_s, dtype=float)))
-        if not math.isfinite(ys[i]):
-            self.least_dot.setVisible(False)
-            self.least_label.setVisible(False)
-            return
-        self.least_dot.setPos(xs[i], ys[i])
-        self.least_label.setPos(xs[i], ys[i])
-        # Least period is the lowest point of the period curve and the highest of the rate:
-        # the label goes on the open side.
-        self.least_label.setAnchor((0.5, 1.3) if self._quantity == "rate" else (0.5, -0.3))
-        self.least_label.setText(f"shortest period {table.period_s[i]:.6f} s "
-                                 f"at {xs[i]:.4g} {unit}".rstrip())
-
-    def _mark_conjugate(self, result: Any, pivot_sweep: bool) -> None:
-        """For the pivot sweep, the centre of oscillation (the core's figure): hung from
-        there, turned over, the pendulum swings with the design's own period (Kater)."""
-        self.conjugate.setVisible(pivot_sweep)
-        if pivot_sweep:
-            at = float(result.centre_of_oscillation_m)
-            self.conjugate.setValue(at)
-            self.conjugate_label.setFormat(f"conjugate pivot {at:.4f} m")
-            self.conjugate_label.valueChanged()
-
     def conjugate_text(self) -> str:
         """The conjugate pivot's label (pivot sweep), or "" when not shown."""
         return self.conjugate_label.textItem.toPlainText() if self.conjugate.isVisible() else ""
@@ -528,21 +358,12 @@ class SweepPlot(QWidget):
         """The label at the least period (pivot sweep), as plain text."""
         return self.least_label.textItem.toPlainText() if self.least_label.isVisible() else ""
 
-    def hideEvent(self, event: Any) -> None:  # noqa: N802 (Qt override)
+    def hideEvent(self, event: Any) -> None:  # Qt override
         """Nothing is swept while hidden; a pending sweep runs when shown again."""
         self._timer.stop()
         super().hideEvent(event)
 
-    def showEvent(self, event: Any) -> None:  # noqa: N802 (Qt override)
+    def showEvent(self, event: Any) -> None:  # Qt override
         super().showEvent(event)
         if self._result is not None:
             self._timer.start()  # does nothing new when the newest sweep is already drawn
-
-
-def _dot(colour: str) -> QGraphicsEllipseItem:
-    """A ring of fixed screen size, placed in data coordinates."""
-    dot = QGraphicsEllipseItem(-4.5, -4.5, 9.0, 9.0)
-    dot.setFlag(QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations, True)
-    dot.setPen(pg.mkPen(colour, width=1.5))
-    dot.setBrush(pg.mkBrush(theme.PLOT_BACKGROUND))
-    return dot

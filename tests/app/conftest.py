@@ -10,9 +10,9 @@ from __future__ import annotations
 import os
 import shutil
 import sys
+from collections.abc import Iterator
 from pathlib import Path
 from types import TracebackType
-from typing import Iterator
 
 import pytest
 from PySide6.QtCore import QSettings
@@ -83,8 +83,8 @@ def example_copy(tmp_path: Path) -> Path:
 @pytest.fixture
 def window(qtbot, example_copy: Path, monkeypatch: pytest.MonkeyPatch):  # type: ignore[no-untyped-def]
     """The main window on a copy of the example, computed, with the discard prompt bypassed."""
-    from app.window.main_window import MainWindow
     from app.document.settings import app_settings
+    from app.window.main_window import MainWindow
     from core import load_design
 
     app_settings().clear()  # each window starts from the defaults

@@ -9,7 +9,8 @@ import pytest
 from app.form import design_edits as edits
 from core import DesignError, load_design
 
-EXAMPLE = Path(__file__).resolve().parents[2] / "resources/examples/workshop_regulator.pendulum.json"
+EXAMPLE = (Path(__file__).resolve().parents[2]
+           / "resources/examples/workshop_regulator.pendulum.json")
 
 
 @pytest.fixture

@@ -13,13 +13,18 @@ import numpy as np
 import pytest
 from PySide6 import QtCore
 
+from app import theme
+from app.views.swing_preview import (
+    CAUTION_MARGIN_PX,
+    SPEEDS,
+    SwingPreview,
+    SwingPreviewControls,
+    deepest_point_m,
+    outlines_from_bodies,
+)
 from core import analyse, design_from_dict, load_design, with_value
 from core.analysis import LOAD_CAUTION
 from core.fileformat import design_to_dict
-
-from app import theme
-from app.views.swing_preview import (CAUTION_MARGIN_PX, SPEEDS, SwingPreview, SwingPreviewControls,
-                         deepest_point_m, outlines_from_bodies)
 
 EXAMPLES = Path(__file__).resolve().parents[2] / "resources" / "examples"
 

@@ -13,16 +13,22 @@ import json
 import os
 import subprocess
 import sys
+from collections.abc import Iterator
 from pathlib import Path
-from typing import Any, Iterator
+from typing import Any
 
 import pytest
 
 from app.document import recovery
 from app.document.document import Document
+from app.document.recovery import (
+    AUTOSAVE_INTERVAL_S,
+    DATA_DIR_ENV,
+    Autosaver,
+    find_orphans,
+    recovery_folder,
+)
 from app.window.main_window import MainWindow
-from app.document.recovery import (AUTOSAVE_INTERVAL_S, DATA_DIR_ENV, Autosaver, find_orphans,
-                          recovery_folder)
 from core import Design, load_design, with_value
 
 ROOT = Path(__file__).resolve().parents[2]
