@@ -193,6 +193,30 @@ class Drawing:
         """The angle the drawing shows, rad."""
         return -math.radians(self.group.rotation())
 
+    def extents(self) -> dict[str, tuple[float, float, float]]:
+        """Each part's (top, bottom, width) in metres, as drawn at rest (unrotated)."""
+        out = {}
+        for name, item in self.items.items():
+            if item.flags() & QtWidgets.QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations:
+                z = float(item.pos().y())
+                out[name] = (z, z, 0.0)
+            else:
+                r = item.rect()  # type: ignore[attr-defined]
+                out[name] = (float(r.top()), float(r.bottom()), float(r.width()))
+        return out
+
+    def shape_of(self, name: str) -> str:
+        """How part ``name`` is drawn: "circle", "rectangle" or "point"."""
+        item = self.items[name]
+        if item.flags() & QtWidgets.QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations:
+            return "point"
+        return "circle" if isinstance(item, QtWidgets.QGraphicsEllipseItem) else "rectangle"
+
+    def point_of(self, name: str) -> tuple[float, float]:
+        """Where the centre of part ``name`` is drawn now, (across, below pivot) in metres."""
+        p = self.group.mapToParent(QtCore.QPointF(0.0, self.outlines[name].centre_m))
+        return float(p.x()), float(p.y())
+
 
 def _drawing_signature(outlines: tuple[Outline, ...]) -> tuple[tuple[Any, ...], ...]:
     """What decides which items a drawing is made of: each part's name, kind and shape, and

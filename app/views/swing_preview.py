@@ -187,25 +187,12 @@ class SwingPreview(ResultView, SwingAnimation):
 
     def drawn_extents(self) -> dict[str, tuple[float, float, float]]:
         """Each drawn part's (top, bottom, width) in metres, as drawn at rest (unrotated)."""
-        if self._drawing is None:
-            return {}
-        out = {}
-        for name, item in self._drawing.items.items():
-            if item.flags() & QtWidgets.QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations:
-                z = float(item.pos().y())
-                out[name] = (z, z, 0.0)
-            else:
-                r = item.rect()  # type: ignore[attr-defined]
-                out[name] = (float(r.top()), float(r.bottom()), float(r.width()))
-        return out
+        return {} if self._drawing is None else self._drawing.extents()
 
     def drawn_shape(self, name: str) -> str:
         """How part ``name`` is drawn: "circle", "rectangle" or "point"."""
         assert self._drawing is not None
-        item = self._drawing.items[name]
-        if item.flags() & QtWidgets.QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations:
-            return "point"
-        return "circle" if isinstance(item, QtWidgets.QGraphicsEllipseItem) else "rectangle"
+        return self._drawing.shape_of(name)
 
     @property
     def shows_baseline(self) -> bool:
@@ -225,9 +212,7 @@ class SwingPreview(ResultView, SwingAnimation):
     def drawn_point(self, name: str) -> tuple[float, float]:
         """Where the centre of part ``name`` is drawn now, (across, below pivot) in metres."""
         assert self._drawing is not None
-        o = self._drawing.outlines[name]
-        p = self._drawing.group.mapToParent(QtCore.QPointF(0.0, o.centre_m))
-        return float(p.x()), float(p.y())
+        return self._drawing.point_of(name)
 
     # ------------------------------------------------------------------ drawing
     def _placed(self, drawing: Drawing | None, outlines: tuple[Outline, ...],
