@@ -29,7 +29,7 @@ from app.form.field_rows import ChoiceRow, NumberRow, Row, TextRow
 from app.form.labels import FIELD_LABELS, field_label
 from app.form.part_editor import PartsSection
 from app.form.units import UnitSystem
-from core import Design, DesignError, design_to_dict
+from core import Design, DesignError, Result, design_to_dict
 from core.fileformat import get_value
 
 __all__ = ["DesignPanel", "FIELD_LABELS", "field_label"]
@@ -57,7 +57,7 @@ class DesignPanel(PartsSection, QScrollArea):
         self.setObjectName("DesignScroll")
         self.document = document
         self._system = system
-        self._result: Any = None
+        self._result: Result | None = None
         self._rows: dict[str, Row] = {}
         self._part_rows: dict[str, Row] = {}
         self._selected = 0
@@ -190,7 +190,8 @@ class DesignPanel(PartsSection, QScrollArea):
 
     @staticmethod
     def _form_label(row: QWidget) -> QWidget:
-        form = row.parentWidget().layout() if row.parentWidget() else None
+        parent = row.parentWidget()
+        form = parent.layout() if parent is not None else None
         if isinstance(form, QFormLayout):
             label = form.labelForField(row)
             if label is not None:
@@ -206,7 +207,7 @@ class DesignPanel(PartsSection, QScrollArea):
         """The row editing ``path`` (KeyError when it is not shown)."""
         return self.all_rows()[path]
 
-    def set_result(self, result: Any) -> None:
+    def set_result(self, result: Result) -> None:
         """Remember the latest analysis: unticked optional fields show the core's own value
         (a part's mass from its material, gravity from latitude), and ticking one starts
         from it."""

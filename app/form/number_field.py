@@ -201,7 +201,7 @@ class NumberField(QAbstractSpinBox):
             self.finish_steps()
 
     # ------------------------------------------------------------------ typed text
-    def validate(self, text: str, pos: int) -> QValidator.State:
+    def validate(self, text: str, pos: int) -> QValidator.State:  # type: ignore[override]
         """Every text may be typed; it is judged when the edit is finished."""
         return QValidator.State.Acceptable
 

@@ -22,7 +22,7 @@ from PySide6.QtWidgets import (
 
 from app.form import design_edits
 from app.form.field_rows import Row
-from core import Design, DesignError
+from core import Design, DesignError, Result
 from core.materials import MATERIALS
 
 if TYPE_CHECKING:
@@ -46,7 +46,7 @@ class PartsSection:
         _part_rows: dict[str, Row]
         _selected: int
         _editor_signature: tuple[Any, ...]
-        _result: Any
+        _result: Result | None
 
         def _number(self, form: QFormLayout, path: str, optional: str | None = None,
                     placeholder: str = "", registry: dict[str, Row] | None = None
@@ -60,7 +60,7 @@ class PartsSection:
 
         def _write_values(self, design: Design) -> None: ...
 
-        def set_result(self, result: Any) -> None: ...
+        def set_result(self, result: Result) -> None: ...
 
     def _build_parts_group(self) -> None:
         box = QGroupBox("Parts")

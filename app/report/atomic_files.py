@@ -1,8 +1,10 @@
 """Writing output files atomically: a temporary file beside the target, renamed over it.
 
-A failed write leaves any earlier file untouched and no temporary file behind. Errors are
-``OSError``; callers decide how to report them (the export turns them into
-``core.DesignError(field="out")``).
+A failed write leaves any earlier file untouched and no temporary file behind. Text goes
+through the core's writer, :func:`core.fileformat.write_text_atomic` (the one implementation of
+temporary-file-and-rename in the program). A file that another library writes by name (a PNG
+or SVG from pyqtgraph's exporters, a PDF from Qt's PDF writer) is written to the temporary name
+:func:`atomic_path` gives and renamed into place here.
 """
 
 from __future__ import annotations
@@ -13,13 +15,28 @@ from collections.abc import Iterator
 from contextlib import contextmanager
 from pathlib import Path
 
-__all__ = ["write_bytes_atomic", "write_text_atomic", "atomic_path"]
+from core.fileformat import write_text_atomic as _core_write_text_atomic
+
+__all__ = ["write_text_atomic", "atomic_path"]
+
+
+def write_text_atomic(path: str | os.PathLike[str], text: str) -> Path:
+    """Write ``text`` as UTF-8 (newlines as given) to ``path``; returns the path.
+
+    Raises
+    ------
+    core.DesignError
+        ``field="file"`` when the file cannot be written (the core's writer).
+    """
+    _core_write_text_atomic(path, text)
+    return Path(path)
 
 
 @contextmanager
 def atomic_path(path: str | os.PathLike[str]) -> Iterator[Path]:
-    """Yield a temporary path (same folder, same suffix, not yet created) to write; on success
-    it is renamed to ``path``, on failure removed. Files get the usual permissions (umask)."""
+    """Yield a temporary path (same folder, same suffix, not yet created) for a library to
+    write; on success it is renamed to ``path``, on failure removed. Errors are ``OSError``.
+    Files get the usual permissions (umask)."""
     target = Path(path)
     tmp = target.with_name(f".{target.stem}.{uuid.uuid4().hex[:12]}.tmp{target.suffix}")
     try:
@@ -30,18 +47,3 @@ def atomic_path(path: str | os.PathLike[str]) -> Iterator[Path]:
     finally:
         if tmp.exists():
             tmp.unlink()
-
-
-def write_bytes_atomic(path: str | os.PathLike[str], data: bytes) -> Path:
-    """Write ``data`` to ``path`` through a temporary file; returns the path."""
-    with atomic_path(path) as tmp:
-        with open(tmp, "wb") as fh:
-            fh.write(data)
-            fh.flush()
-            os.fsync(fh.fileno())
-    return Path(path)
-
-
-def write_text_atomic(path: str | os.PathLike[str], text: str) -> Path:
-    """Write ``text`` as UTF-8 (newlines as given) to ``path``; returns the path."""
-    return write_bytes_atomic(path, text.encode("utf-8"))

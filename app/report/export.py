@@ -17,9 +17,11 @@ import sys
 from collections.abc import Callable
 from functools import partial
 from pathlib import Path
-from typing import TYPE_CHECKING, Any
+from typing import TYPE_CHECKING, Any, cast
 
 if TYPE_CHECKING:
+    from PySide6.QtWidgets import QWidget
+
     from app.views.base import View
     from core import Result
 
@@ -110,6 +112,18 @@ def _write(path: Path, writer: Callable[[Path], Any]) -> Path:
     return path
 
 
+def _write_text(path: Path, text: str) -> Path:
+    """Write ``text`` through the core's atomic writer; a failure becomes
+    ``DesignError(field="out")``."""
+    from app.report.atomic_files import write_text_atomic
+    from core import DesignError
+
+    try:
+        return write_text_atomic(path, text)
+    except DesignError as exc:
+        raise DesignError("out", f"could not write {path}: {exc.reason}") from None
+
+
 def export_all(file: str | os.PathLike[str], out_dir: str | os.PathLike[str]) -> list[Path]:
     """Load and analyse the design in ``file`` and write every export into ``out_dir``.
 
@@ -152,12 +166,12 @@ def export_result(result: Result, out_dir: str | os.PathLike[str], source_name: 
         for w in widgets:
             for suffix in (".png", ".svg"):
                 written.append(_write(out / f"{w.slug}{suffix}", w.export))
-        for name, write_csv in (("motion.csv", data_export.write_motion_csv),
-                                ("period_curve.csv", data_export.write_period_curve_csv),
-                                ("parts.csv", data_export.write_parts_csv)):
-            written.append(_write(out / name, partial(write_csv, result)))
+        for name, make_csv in (("motion.csv", data_export.motion_csv),
+                               ("period_curve.csv", data_export.period_curve_csv),
+                               ("parts.csv", data_export.parts_csv)):
+            written.append(_write_text(out / name, make_csv(result)))
         _lay_out(widgets, result, app, REPORT_PLOT_SIZE_PX)
-        images = {w.title: widget_image(w) for w in widgets}
+        images = {w.title: widget_image(cast("QWidget", w)) for w in widgets}
         captions = {w.title: w.caption for w in widgets}
         written.append(_write(out / "report.pdf", partial(
             _write_report, result, images, captions, source_name)))

@@ -19,6 +19,7 @@ from PySide6 import QtCore, QtGui, QtWidgets
 
 from app.readout.readout_format import SECTIONS, format_value
 from app.report.atomic_files import atomic_path
+from core import Result
 from core.analysis import LOAD_CAUTION, SPRING_CAUTION
 from core.fileformat import design_to_dict
 
@@ -128,7 +129,7 @@ def _readout_html(report: Mapping[str, Any], spring: bool) -> str:
     return table.replace("<tr><td colspan='3'>", "<tr class='section'><td colspan='3'>")
 
 
-def _design_html(result: Any) -> str:
+def _design_html(result: Result) -> str:
     d = design_to_dict(result.design)
     rows = [[_td("Reference temperature"),
              _td(f"<b>{d['reference_temperature_c']:.6g}</b> °C")]]
@@ -195,7 +196,7 @@ def _plots_html(images: Mapping[str, str], captions: Mapping[str, str]) -> str:
 _IMAGE_WIDTH_HTML = 560  # document px (96 per inch): two plots and captions a page
 
 
-def report_html(result: Any, *, source_name: str | None, date: _dt.date,
+def report_html(result: Result, *, source_name: str | None, date: _dt.date,
                 image_urls: Mapping[str, str], captions: Mapping[str, str] | None = None) -> str:
     """The report as Qt rich-text HTML; ``image_urls`` maps plot titles to resource URLs."""
     report = result.report_dict()
@@ -247,7 +248,7 @@ def widget_image(widget: QtWidgets.QWidget, width_px: int = REPORT_IMAGE_WIDTH_P
     return image
 
 
-def _document(result: Any, images: Mapping[str, QtGui.QImage], captions: Mapping[str, str],
+def _document(result: Result, images: Mapping[str, QtGui.QImage], captions: Mapping[str, str],
               source_name: str | None, date: _dt.date) -> QtGui.QTextDocument:
     doc = QtGui.QTextDocument()
     font = QtGui.QFont("DejaVu Sans")
@@ -263,7 +264,7 @@ def _document(result: Any, images: Mapping[str, QtGui.QImage], captions: Mapping
     return doc
 
 
-def write_report_pdf(result: Any, path: str | os.PathLike[str],
+def write_report_pdf(result: Result, path: str | os.PathLike[str],
                      images: Mapping[str, QtGui.QImage], *,
                      captions: Mapping[str, str] | None = None, source_name: str | None = None,
                      date: _dt.date | None = None) -> Path:

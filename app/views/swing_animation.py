@@ -15,7 +15,7 @@ from __future__ import annotations
 
 import math
 import time
-from typing import TYPE_CHECKING, Any, Protocol
+from typing import TYPE_CHECKING, Any, Protocol, cast
 
 import numpy as np
 from PySide6 import QtCore, QtGui
@@ -92,7 +92,7 @@ class SwingAnimation:
         # While playing, the swing time shown is _anchor_time_s + speed × (now − _anchor_wall_s)
         self._anchor_wall_s = 0.0
         self._anchor_time_s = 0.0
-        self._timer = QtCore.QTimer(self)  # type: ignore[call-overload]
+        self._timer = QtCore.QTimer(cast(QtCore.QObject, self))
         self._timer.setTimerType(QtCore.Qt.TimerType.PreciseTimer)
         self._timer.setInterval(FRAME_INTERVAL_MS)
         self._timer.timeout.connect(self.draw_frame)
@@ -113,7 +113,7 @@ class SwingAnimation:
         self._play_action.setCheckable(True)
         self._play_action.toggled.connect(self.set_playing)
         speed_menu = menu.addMenu("Swing speed")
-        group = QtGui.QActionGroup(self)
+        group = QtGui.QActionGroup(cast(QtCore.QObject, self))
         self._speed_actions: dict[float, QtGui.QAction] = {}
         for factor in SPEEDS:
             action = speed_menu.addAction(SPEED_LABELS[factor])
