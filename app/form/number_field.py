@@ -5,7 +5,7 @@ that is not a finite number is refused with a sentence instead of being coerced.
 change signals: ``changing`` on every arrow, wheel or button step (plots follow it live) and
 ``changed`` when an edit is finished (typed and confirmed, or the end of a run of steps), which
 the undo history records. Values cross its boundary in SI units; the field converts with its
-:class:`~app.units.FieldUnit`.
+:class:`~app.form.units.FieldUnit`.
 """
 
 from __future__ import annotations

@@ -1,9 +1,9 @@
 """The PDF report of one design: Qt's own PDF writer laying out an HTML document on A4.
 
 Contents: title, design name, file, date; the safety cautions (boxed, first page); the readout
-(``app.readout_format.SECTIONS``) with the sensitivities; the design (site, suspension, swing,
-target, every part with its fields and units); the rate budget; the exhibit figures with the
-load caution; warnings; every plot as an image. All numbers come from ``core.Result``.
+(``app.readout.readout_format.SECTIONS``) with the sensitivities; the design (site, suspension,
+swing, target, every part with its fields and units); the rate budget; the exhibit figures with
+the load caution; warnings; every plot as an image. All numbers come from ``core.Result``.
 """
 
 from __future__ import annotations

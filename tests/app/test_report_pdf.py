@@ -63,7 +63,7 @@ class TestContents:
         for _section, rows in SECTIONS:
             for _key, label, _unit, _fmt in rows:
                 assert label in text, label
-        # Figures as the readout formats them (app.readout_format).
+        # Figures as the readout formats them (app.readout.readout_format).
         assert "1442.45" in text            # peak pivot load, N
         assert "0.8151" in text             # bob peak speed, m/s
         assert "32.568" in text             # Foucault full turn, h
