@@ -13,8 +13,9 @@ import errno
 import os
 import random
 import stat
+from collections.abc import Callable
 from pathlib import Path
-from typing import Any, Callable
+from typing import Any
 
 import pytest
 from PySide6.QtCore import QMimeData, QPointF, Qt, QUrl
@@ -23,8 +24,8 @@ from PySide6.QtWidgets import QMessageBox
 
 import core.fileformat as fileformat
 from app.cli import main
-from app.document import read_design_file
-from app.main_window import MainWindow
+from app.document.document import read_design_file
+from app.window.main_window import MainWindow
 from core import DesignError, load_design, with_value
 from core.fileformat import MAX_FILE_BYTES
 
@@ -197,7 +198,7 @@ class TestOpeningBrokenFiles:
         boxes = [b for b in edited.findChildren(QMessageBox) if b.isVisible()]
         assert len(boxes) == 1
         assert boxes[0].windowTitle() == "Cannot open design"
-        assert boxes[0].text() == (f"v9.pendulum.json: version: version 9 is newer than this "
+        assert boxes[0].text() == ("v9.pendulum.json: version: version 9 is newer than this "
                                    "Penduline reads (up to 2); update Penduline")
         assert edited.last_message == boxes[0].text()
         boxes[0].close()
@@ -273,7 +274,7 @@ def _disk_full(monkeypatch: pytest.MonkeyPatch) -> None:
         def __getattr__(self, name: str) -> Any:
             return getattr(self._fh, name)
 
-        def __enter__(self) -> "Full":
+        def __enter__(self) -> Full:
             return self
 
         def __exit__(self, *exc: object) -> None:
