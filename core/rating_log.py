@@ -21,6 +21,7 @@ from datetime import datetime
 from typing import Any, Literal
 
 from .errors import DesignError, guarded
+from .fields import field_spec, range_text
 
 __all__ = ["Reading", "Adjustment", "DecayReading", "RatingLog", "ADJUSTMENT_KINDS",
            "CSV_COLUMNS", "rating_log_from_dict", "rating_log_to_dict", "rating_log_from_csv",
@@ -31,15 +32,6 @@ ADJUSTMENT_KINDS: tuple[str, ...] = ("nut", "trim", "bob", "set", "other")
 MAX_ENTRIES = 100_000
 MAX_NOTE = 200
 
-# (low, high, low_open) per condition; the high end is closed.
-_RANGES: dict[str, tuple[float, float, bool]] = {
-    "temperature_c": (-80.0, 100.0, False),
-    "pressure_hpa": (0.0, 1200.0, False),
-    "semi_arc_deg": (0.0, 179.9, True),
-    "error_s": (-1.0e7, 1.0e7, False),
-    "amount": (-1.0e6, 1.0e6, False),
-    "elapsed_s": (0.0, 1.0e9, False),
-}
 
 
 @dataclass(frozen=True)
@@ -102,6 +94,15 @@ def _kind(value: Any) -> str:
     return names.get(type(value), type(value).__name__)
 
 
+# The table row of each CSV column (a CSV row is not a path into the file).
+_CSV_SPEC = {"error_s": "rating_log.readings[].error_s",
+             "temperature_c": "rating_log.readings[].temperature_c",
+             "pressure_hpa": "rating_log.readings[].pressure_hpa",
+             "semi_arc_deg": "rating_log.readings[].semi_arc_deg",
+             "amount": "rating_log.adjustments[].amount",
+             "elapsed_s": "rating_log.decay[].elapsed_s"}
+
+
 def _number(path: str, key: str, value: Any) -> float:
     if isinstance(value, bool) or not isinstance(value, (int, float)):
         raise DesignError(path, f"must be a number, not {_kind(value)}")
@@ -111,10 +112,10 @@ def _number(path: str, key: str, value: Any) -> float:
         raise DesignError(path, "is too large") from None
     if not math.isfinite(x):
         raise DesignError(path, f"must be a finite number, not {x}")
-    lo, hi, lo_open = _RANGES[key]
-    if x < lo or x > hi or (lo_open and x == lo):
-        raise DesignError(path, f"{key}={x:g} is out of range: it must be in "
-                                f"{'(' if lo_open else '['}{lo:g}, {hi:g}]")
+    spec = field_spec(path if path.startswith("rating_log") else _CSV_SPEC[key])
+    if not spec.contains(x):
+        raise DesignError(path, f"{spec.label} {x:g} is out of range: it must be in "
+                                f"{range_text(spec)}")
     return x
 
 

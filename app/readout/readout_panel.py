@@ -1,6 +1,6 @@
 """The readout: every figure of a result with its unit, the rate budget, warnings and cautions.
 
-Rows, labels and formats come from :mod:`app.readout_format` (shared with the report and the
+Rows, labels and formats come from :mod:`app.readout.readout_format` (shared with the report and the
 PDF). Values are only converted to the chosen display units here; nothing is computed. The
 tree's items are created once and their texts updated on each result.
 
@@ -16,12 +16,24 @@ from typing import Any
 
 from PySide6.QtCore import QSize, Qt, Signal
 from PySide6.QtGui import QBrush, QColor, QFont, QShowEvent
-from PySide6.QtWidgets import (QFrame, QHBoxLayout, QHeaderView, QLabel, QScrollArea,
-                               QSplitter, QTreeWidget, QTreeWidgetItem, QVBoxLayout, QWidget)
+from PySide6.QtWidgets import (
+    QHBoxLayout,
+    QHeaderView,
+    QLabel,
+    QSplitter,
+    QTreeWidget,
+    QTreeWidgetItem,
+    QVBoxLayout,
+    QWidget,
+)
 
-from .number_field import NumberField
-from .readout_format import SECTIONS, describe, format_value
-from .units import UnitSystem, field_unit, readout_unit
+from app.form.number_field import NumberField
+from app.form.units import UnitSystem, field_unit, readout_unit
+from app.readout.cells import TreeCells, budget_rows, convert, delta_text
+from app.readout.notes import NotesPane
+from app.readout.readout_format import SECTIONS, describe, format_value
+from core import Result
+from core.tuning import BudgetRanges
 
 __all__ = ["ReadoutPanel", "BUDGET_RANGES"]
 
@@ -39,11 +51,6 @@ RANGE_ROW_PADDING_PX = 2  # a range entry's row is this much taller than the ent
 _COLUMNS = ("Figure", "Value", "Unit", "Δ baseline")
 _RIGHT = Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter
 LABEL_PADDING_PX = 14  # item padding and text margins around a label, px
-
-
-def _signed(fmt: str) -> str:
-    """The same format with an explicit sign (for differences)."""
-    return fmt if fmt.startswith("{:+") else fmt.replace("{:", "{:+", 1)
 
 
 class ReadoutPanel(QWidget):
@@ -65,8 +72,8 @@ class ReadoutPanel(QWidget):
         super().__init__(parent)
         self.setObjectName("ReadoutPanel")
         self._system = system
-        self._result: Any = None
-        self._baseline: Any = None
+        self._result: Result | None = None
+        self._baseline: Result | None = None
         self._items: dict[str, tuple[QTreeWidgetItem, str, str]] = {}
         self._budget_items: list[QTreeWidgetItem] = []
         self.budget_fields: dict[str, NumberField] = {}
@@ -91,8 +98,10 @@ class ReadoutPanel(QWidget):
         self.splitter = QSplitter(Qt.Orientation.Vertical)
         self.splitter.setChildrenCollapsible(False)
         self.tree = self._build_tree()
+        self._cells = TreeCells(self.tree)
         self.splitter.addWidget(self._build_figures())
-        self.splitter.addWidget(self._build_notes())
+        self.notes = NotesPane()
+        self.splitter.addWidget(self.notes)
         self.splitter.setStretchFactor(0, 3)
         self.splitter.setStretchFactor(1, 1)
         self.splitter.setSizes([560, 220])
@@ -143,7 +152,7 @@ class ReadoutPanel(QWidget):
         tree.setRootIsDecorated(False)
         tree.setAlternatingRowColors(True)
         # Rows are as tall as their text, the budget's range rows as tall as an entry; new
-        # texts do not measure rows again (see ``_write_cells``).
+        # texts do not measure rows again (see :class:`app.readout.cells.TreeCells`).
         tree.setUniformRowHeights(False)
         tree.setIndentation(0)
         tree.setSelectionMode(QTreeWidget.SelectionMode.SingleSelection)
@@ -217,7 +226,7 @@ class ReadoutPanel(QWidget):
         if item.sizeHint(1).height() != height:
             item.setSizeHint(1, QSize(field.minimumSizeHint().width(), height))
 
-    def showEvent(self, event: QShowEvent) -> None:  # noqa: N802 (Qt name)
+    def showEvent(self, event: QShowEvent) -> None:  # Qt override
         """The entries have their final style once shown: fit their rows to it."""
         for key in self._range_items:
             self._fit_range_row(key)
@@ -256,39 +265,6 @@ class ReadoutPanel(QWidget):
         head.setFlags(Qt.ItemFlag.ItemIsEnabled)
         return head
 
-    def _build_notes(self) -> QScrollArea:
-        area = QScrollArea()
-        area.setWidgetResizable(True)
-        area.setFrameShape(QFrame.Shape.NoFrame)
-        body = QWidget()
-        self.notes_layout = QVBoxLayout(body)
-        self.notes_layout.setContentsMargins(0, 0, 4, 0)
-        self.notes_layout.setSpacing(6)
-        self.warning_box, self.warning_text = self._note_box("Warning", "Warnings")
-        self.caution_box, self.caution_text = self._note_box("Caution", "Safety cautions")
-        self.notes_layout.addWidget(self.warning_box)
-        self.notes_layout.addWidget(self.caution_box)
-        self.notes_layout.addStretch(1)
-        area.setWidget(body)
-        return area
-
-    @staticmethod
-    def _note_box(name: str, heading: str) -> tuple[QFrame, QLabel]:
-        box = QFrame()
-        box.setObjectName(name)
-        inner = QVBoxLayout(box)
-        inner.setContentsMargins(10, 6, 8, 8)
-        inner.setSpacing(3)
-        title = QLabel(heading)
-        title.setObjectName("NoteHeading")
-        text = QLabel()
-        text.setWordWrap(True)
-        text.setTextFormat(Qt.TextFormat.RichText)
-        text.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
-        inner.addWidget(title)
-        inner.addWidget(text)
-        return box, text
-
     # ================================================================== updates
     def set_unit_system(self, system: UnitSystem) -> None:
         """Show figures in ``system``'s units."""
@@ -297,11 +273,11 @@ class ReadoutPanel(QWidget):
         self.trim_unit.setText(self.trim_field.unit().text)
         for key, field in self.budget_fields.items():
             field.set_unit(field_unit(f"budget.{key}", system))
-            _set_text(self._range_items[key], 2, field.unit().text)
+            self._cells.set_text(self._range_items[key], 2, field.unit().text)
         if self._result is not None:
             self.show_result(self._result, self._baseline)
 
-    def show_result(self, result: Any, baseline: Any = None) -> None:
+    def show_result(self, result: Result, baseline: Result | None = None) -> None:
         """Show every figure of ``result`` (and differences from ``baseline`` when given)."""
         self._result, self._baseline = result, baseline
         report = result.report_dict()
@@ -311,42 +287,20 @@ class ReadoutPanel(QWidget):
         cells: list[tuple[QTreeWidgetItem, int, str]] = []
         for key, (item, unit, fmt) in self._items.items():
             shown = readout_unit(unit, self._system)
-            cells.append((item, 1, format_value(_convert(report.get(key), shown), fmt)))
+            cells.append((item, 1, format_value(convert(report.get(key), shown), fmt)))
             cells.append((item, 2, shown.text))
-            cells.append((item, 3, "" if base is None else _delta(report.get(key),
-                                                                  base.get(key), shown.scale,
-                                                                  fmt)))
-        _write_cells(self.tree, cells)
+            cells.append((item, 3, "" if base is None else delta_text(report.get(key),
+                                                                      base.get(key),
+                                                                      shown.scale, fmt)))
+        self._cells.write(cells)
         self._show_budget(result)
         self._show_notes(result)
         if not self.trim_field.hasFocus():
             self.trim_field.set_value(result.sensitivities.trim_height_m)
         self.show_compute_problem("")
 
-    def _show_budget(self, result: Any) -> None:
-        rows: list[tuple[str, str, str]] = []
-        tips: list[str] = []
-        site = result.design.site
-        nominal = {"°C": site.temperature_c, "hPa": site.pressure_hpa,
-                   "°": result.amplitude_deg}  # what each range is taken about, by its unit
-        for line in result.budget.lines:
-            unit = readout_unit(line.unit, self._system)
-            low, high = unit.convert(line.low), unit.convert(line.high)
-            centre = nominal.get(line.unit)
-            shown = _range_text(low, high, None if centre is None else unit.convert(centre))
-            gap = "" if unit.text == "°" else " "
-            rows.append((f"{line.cause} {shown}{gap}{unit.text}",
-                         f"{line.spread_s_per_day:+.2f}", "s/day"))
-            tips.append(f"{line.cause} from {low:.6g} to {high:.6g} {unit.text}: rate "
-                        f"{line.rate_at_low_s_per_day:+.2f} s/day at the low end, "
-                        f"{line.rate_at_high_s_per_day:+.2f} s/day at the high end")
-        rows.append(("Worst case (sum)", f"{result.budget.worst_case_s_per_day:.2f}",
-                     "s/day"))
-        tips.append("Sum of the spreads above: every cause pushing the same way at once")
-        rows.append(("Root sum square", f"{result.budget.root_sum_square_s_per_day:.2f}",
-                     "s/day"))
-        tips.append("Square root of the sum of the squared spreads: the causes taken as "
-                    "independent of each other")
+    def _show_budget(self, result: Result) -> None:
+        rows, tips = budget_rows(result, self._system)
         self._fit_budget_labels([label for label, _value, _unit in rows])
         while len(self._budget_items) < len(rows):
             item = QTreeWidgetItem(self._budget_head, ["", "", "", ""])
@@ -358,10 +312,8 @@ class ReadoutPanel(QWidget):
                 item.setHidden(hidden)
             if hidden:
                 continue
-            _write_cells(self.tree, [(item, column, text) for column, text in enumerate(rows[i])])
-            if _TIPS.get(id(item)) != tips[i]:
-                _TIPS[id(item)] = tips[i]
-                item.setToolTip(0, tips[i])
+            self._cells.write([(item, column, text) for column, text in enumerate(rows[i])])
+            self._cells.set_tip(item, tips[i])
         if not self._budget_head.isExpanded():
             self._budget_head.setExpanded(True)
 
@@ -377,14 +329,10 @@ class ReadoutPanel(QWidget):
             self._budget_label_width = width
             self._fit_least_width()
 
-    def _show_notes(self, result: Any) -> None:
-        if (result.warnings, result.cautions) == self._notes_shown:
-            return
-        self._notes_shown = (result.warnings, result.cautions)
-        self.warning_box.setVisible(bool(result.warnings))
-        self.warning_text.setText(_bullets(result.warnings))
-        self.caution_box.setVisible(bool(result.cautions))
-        self.caution_text.setText(_bullets(result.cautions))
+    def _show_notes(self, result: Result) -> None:
+        if (result.warnings, result.cautions) != self._notes_shown:
+            self._notes_shown = (result.warnings, result.cautions)
+            self.notes.show_notes(result.warnings, result.cautions)
 
     def show_compute_problem(self, message: str) -> None:
         """Say that the design shown cannot be computed (figures stay at the last good one)."""
@@ -397,7 +345,7 @@ class ReadoutPanel(QWidget):
         self.trim_problem.setText(message)
         self.trim_problem.setVisible(bool(message))
 
-    def set_budget_ranges(self, ranges: Any) -> None:
+    def set_budget_ranges(self, ranges: BudgetRanges) -> None:
         """Show the budget's half-widths in use (a ``core.tuning.BudgetRanges``); clears any
         refusal. Emits nothing."""
         for key, field in self.budget_fields.items():
@@ -435,68 +383,3 @@ class ReadoutPanel(QWidget):
         self.trimHeightChanged.emit(si)
 
 
-_SHOWN: dict[tuple[int, int], str] = {}
-_TIPS: dict[int, str] = {}
-
-
-def _write_cells(tree: QTreeWidget, cells: list[tuple[QTreeWidgetItem, int, str]]) -> None:
-    """Set the text of one-line cells (``(item, column, text)``; unchanged ones are skipped).
-
-    The tree learns of each change by a repaint of that cell alone. Qt's own change notice
-    would also measure the row's height again (the rows are not all of one height: the
-    budget's range entries are taller), which one line of new text cannot change; on a live
-    drag that measuring is a cost paid for nothing.
-    """
-    changed: list[tuple[QTreeWidgetItem, int]] = []
-    model = tree.model()
-    blocked = model.blockSignals(True)
-    try:
-        for item, column, text in cells:
-            key = (id(item), column)
-            if _SHOWN.get(key) != text:
-                _SHOWN[key] = text
-                item.setText(column, text)
-                changed.append((item, column))
-    finally:
-        model.blockSignals(blocked)
-    viewport = tree.viewport()
-    for item, column in changed:
-        viewport.update(tree.visualRect(tree.indexFromItem(item, column)))
-
-
-def _set_text(item: QTreeWidgetItem, column: int, text: str) -> None:
-    """Set a cell's text only when it changes (each change costs a relayout and repaint);
-    what was set is remembered here, as reading it back from Qt is slow."""
-    key = (id(item), column)
-    if _SHOWN.get(key) != text:
-        _SHOWN[key] = text
-        item.setText(column, text)
-
-
-def _range_text(low: float, high: float, nominal: float | None) -> str:
-    """A budget range shown briefly: "±5" when it is centred on the ``nominal`` value (the
-    site's, or the working arc), "0–1063" when one end is cut short (a pressure range wider
-    than the site's pressure); the exact ends are in the row's tooltip."""
-    half = 0.5 * (high - low)
-    middle = 0.5 * (high + low)
-    if nominal is not None and abs(middle - nominal) <= 1e-9 * max(1.0, abs(nominal)):
-        return f"±{half:.3g}"
-    return f"{low:.4g}–{high:.4g}"
-
-
-def _convert(value: Any, unit: Any) -> Any:
-    if isinstance(value, (int, float)) and not isinstance(value, bool):
-        return unit.convert(float(value))
-    return value
-
-
-def _delta(value: Any, base: Any, scale: float, fmt: str) -> str:
-    if not (isinstance(value, (int, float)) and isinstance(base, (int, float))):
-        return ""
-    return format_value((float(value) - float(base)) * scale, _signed(fmt))
-
-
-def _bullets(lines: Any) -> str:
-    from html import escape
-
-    return "".join(f"<p style='margin:0 0 4px 0'>{escape(text)}</p>" for text in lines)

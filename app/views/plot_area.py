@@ -6,6 +6,7 @@ never squeezed into the grid: it keeps a tab of its own beside the grid page ("A
 
 from __future__ import annotations
 
+from PySide6.QtCore import QSignalBlocker
 from PySide6.QtWidgets import QGridLayout, QTabWidget, QWidget
 
 __all__ = ["PlotArea", "ARRANGEMENTS", "GRID_PAGE_TITLE"]
@@ -56,24 +57,23 @@ class PlotArea(QWidget):
             return
         current = self._current_plot()
         self._arrangement = arrangement
-        self.tabs.blockSignals(True)
-        while self.tabs.count():
-            self.tabs.removeTab(0)
-        members = [p for p in self.plots if _in_grid(p)]
-        if arrangement == "grid":
-            for i, plot in enumerate(members):
-                row, column, span = self._cell(i, len(members))
-                self._grid.addWidget(plot, row, column, 1, span)
-                plot.show()
-            self.tabs.addTab(self._grid_page, GRID_PAGE_TITLE)
-            tabbed = [p for p in self.plots if not _in_grid(p)]
-        else:
-            for plot in members:
-                self._grid.removeWidget(plot)
-            tabbed = list(self.plots)
-        for plot in tabbed:
-            self.tabs.addTab(plot, getattr(plot, "title", "Plot"))
-        self.tabs.blockSignals(False)
+        with QSignalBlocker(self.tabs):
+            while self.tabs.count():
+                self.tabs.removeTab(0)
+            members = [p for p in self.plots if _in_grid(p)]
+            if arrangement == "grid":
+                for i, plot in enumerate(members):
+                    row, column, span = self._cell(i, len(members))
+                    self._grid.addWidget(plot, row, column, 1, span)
+                    plot.show()
+                self.tabs.addTab(self._grid_page, GRID_PAGE_TITLE)
+                tabbed = [p for p in self.plots if not _in_grid(p)]
+            else:
+                for plot in members:
+                    self._grid.removeWidget(plot)
+                tabbed = list(self.plots)
+            for plot in tabbed:
+                self.tabs.addTab(plot, getattr(plot, "title", "Plot"))
         if current is not None:
             self.show_plot(self.plots.index(current))
         self.tabs.currentChanged.emit(self.tabs.currentIndex())

@@ -1,9 +1,9 @@
 """The PDF report of one design: Qt's own PDF writer laying out an HTML document on A4.
 
 Contents: title, design name, file, date; the safety cautions (boxed, first page); the readout
-(``app.readout_format.SECTIONS``) with the sensitivities; the design (site, suspension, swing,
-target, every part with its fields and units); the rate budget; the exhibit figures with the
-load caution; warnings; every plot as an image. All numbers come from ``core.Result``.
+(``app.readout.readout_format.SECTIONS``) with the sensitivities; the design (site, suspension,
+swing, target, every part with its fields and units); the rate budget; the exhibit figures with
+the load caution; warnings; every plot as an image. All numbers come from ``core.Result``.
 """
 
 from __future__ import annotations
@@ -11,16 +11,17 @@ from __future__ import annotations
 import datetime as _dt
 import html
 import os
+from collections.abc import Mapping, Sequence
 from pathlib import Path
-from typing import Any, Mapping, Sequence
+from typing import Any
 
 from PySide6 import QtCore, QtGui, QtWidgets
 
+from app.readout.readout_format import SECTIONS, format_value
+from app.report.atomic_files import atomic_path
+from core import Result
 from core.analysis import LOAD_CAUTION, SPRING_CAUTION
 from core.fileformat import design_to_dict
-
-from .atomic_files import atomic_path
-from .readout_format import SECTIONS, format_value
 
 __all__ = ["write_report_pdf", "report_html", "widget_image", "field_label"]
 
@@ -93,7 +94,7 @@ def _fields_text(d: Mapping[str, Any], skip: Sequence[str] = ()) -> str:
 def _table(header: Sequence[str], rows: Sequence[Sequence[str]], widths: Sequence[int] = ()
            ) -> str:
     cols = "".join(f"<th width='{w}%'>{h}</th>" if widths else f"<th>{h}</th>"
-                   for h, w in zip(header, widths or [0] * len(header)))
+                   for h, w in zip(header, widths or [0] * len(header), strict=False))
     body = "".join("<tr>" + "".join(cell for cell in row) + "</tr>" for row in rows)
     return (f"<table class='grid' width='100%' cellspacing='0' cellpadding='3'>"
             f"<tr>{cols}</tr>{body}</table>")
@@ -128,7 +129,7 @@ def _readout_html(report: Mapping[str, Any], spring: bool) -> str:
     return table.replace("<tr><td colspan='3'>", "<tr class='section'><td colspan='3'>")
 
 
-def _design_html(result: Any) -> str:
+def _design_html(result: Result) -> str:
     d = design_to_dict(result.design)
     rows = [[_td("Reference temperature"),
              _td(f"<b>{d['reference_temperature_c']:.6g}</b> °C")]]
@@ -195,7 +196,7 @@ def _plots_html(images: Mapping[str, str], captions: Mapping[str, str]) -> str:
 _IMAGE_WIDTH_HTML = 560  # document px (96 per inch): two plots and captions a page
 
 
-def report_html(result: Any, *, source_name: str | None, date: _dt.date,
+def report_html(result: Result, *, source_name: str | None, date: _dt.date,
                 image_urls: Mapping[str, str], captions: Mapping[str, str] | None = None) -> str:
     """The report as Qt rich-text HTML; ``image_urls`` maps plot titles to resource URLs."""
     report = result.report_dict()
@@ -247,7 +248,7 @@ def widget_image(widget: QtWidgets.QWidget, width_px: int = REPORT_IMAGE_WIDTH_P
     return image
 
 
-def _document(result: Any, images: Mapping[str, QtGui.QImage], captions: Mapping[str, str],
+def _document(result: Result, images: Mapping[str, QtGui.QImage], captions: Mapping[str, str],
               source_name: str | None, date: _dt.date) -> QtGui.QTextDocument:
     doc = QtGui.QTextDocument()
     font = QtGui.QFont("DejaVu Sans")
@@ -263,7 +264,7 @@ def _document(result: Any, images: Mapping[str, QtGui.QImage], captions: Mapping
     return doc
 
 
-def write_report_pdf(result: Any, path: str | os.PathLike[str],
+def write_report_pdf(result: Result, path: str | os.PathLike[str],
                      images: Mapping[str, QtGui.QImage], *,
                      captions: Mapping[str, str] | None = None, source_name: str | None = None,
                      date: _dt.date | None = None) -> Path:

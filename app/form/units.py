@@ -9,7 +9,7 @@ hPa ↔ inHg.
 from __future__ import annotations
 
 from dataclasses import dataclass
-from enum import Enum
+from enum import StrEnum
 
 __all__ = ["UnitSystem", "FieldUnit", "field_unit", "ReadoutUnit", "readout_unit"]
 
@@ -20,7 +20,7 @@ HPA_PER_INHG = 33.8638866667
 NEWTONS_PER_LBF = 4.4482216152605
 
 
-class UnitSystem(str, Enum):
+class UnitSystem(StrEnum):
     """The two unit systems a person may choose for entry and display."""
 
     METRIC = "metric"

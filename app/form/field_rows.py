@@ -9,12 +9,20 @@ from __future__ import annotations
 
 from typing import Any
 
-from PySide6.QtCore import Qt, Signal
-from PySide6.QtWidgets import (QCheckBox, QComboBox, QHBoxLayout, QLabel, QLineEdit,
-                               QSizePolicy, QVBoxLayout, QWidget)
+from PySide6.QtCore import QSignalBlocker, Qt, Signal
+from PySide6.QtWidgets import (
+    QCheckBox,
+    QComboBox,
+    QHBoxLayout,
+    QLabel,
+    QLineEdit,
+    QSizePolicy,
+    QVBoxLayout,
+    QWidget,
+)
 
-from .number_field import NumberField, format_number
-from .units import UnitSystem, field_unit
+from app.form.number_field import NumberField, format_number
+from app.form.units import UnitSystem, field_unit
 
 __all__ = ["Row", "NumberRow", "ChoiceRow", "TextRow"]
 
@@ -115,9 +123,8 @@ class NumberRow(Row):
     def set_from_design(self, value: Any) -> None:
         """Show the design's value (None: an optional field left to the core)."""
         if self.check is not None:
-            self.check.blockSignals(True)
-            self.check.setChecked(value is not None)
-            self.check.blockSignals(False)
+            with QSignalBlocker(self.check):
+                self.check.setChecked(value is not None)
             self.field.setEnabled(value is not None)
         if value is None:
             self.field.clear_value()
@@ -176,25 +183,23 @@ class ChoiceRow(Row):
 
     def set_choices(self, choices: list[tuple[str, str]]) -> None:
         """Replace the (key, label) choices without emitting."""
-        self.combo.blockSignals(True)
-        current = self.combo.currentData()
-        self.combo.clear()
-        for key, label in choices:
-            self.combo.addItem(label, key)
-        index = self.combo.findData(current)
-        if index >= 0:
-            self.combo.setCurrentIndex(index)
-        self.combo.blockSignals(False)
+        with QSignalBlocker(self.combo):
+            current = self.combo.currentData()
+            self.combo.clear()
+            for key, label in choices:
+                self.combo.addItem(label, key)
+            index = self.combo.findData(current)
+            if index >= 0:
+                self.combo.setCurrentIndex(index)
 
     def set_from_design(self, value: Any) -> None:
         """Select the choice whose key is ``value``."""
-        self.combo.blockSignals(True)
-        index = self.combo.findData(value)
-        if index < 0 and value is not None:
-            self.combo.addItem(str(value), value)
-            index = self.combo.count() - 1
-        self.combo.setCurrentIndex(index)
-        self.combo.blockSignals(False)
+        with QSignalBlocker(self.combo):
+            index = self.combo.findData(value)
+            if index < 0 and value is not None:
+                self.combo.addItem(str(value), value)
+                index = self.combo.count() - 1
+            self.combo.setCurrentIndex(index)
         self.mark("")
 
     def _on_activated(self, index: int) -> None:
@@ -227,11 +232,10 @@ class TextRow(Row):
         """Show the design's text."""
         self._shown = str(value)
         if self.edit.text() != self._shown:
-            self.edit.blockSignals(True)
-            self.edit.setText(self._shown)
-            if not self.edit.hasFocus():
-                self.edit.setCursorPosition(0)  # a long name shows its beginning
-            self.edit.blockSignals(False)
+            with QSignalBlocker(self.edit):
+                self.edit.setText(self._shown)
+                if not self.edit.hasFocus():
+                    self.edit.setCursorPosition(0)  # a long name shows its beginning
         self.mark("")
 
     def _on_finished(self) -> None:

@@ -5,7 +5,7 @@ that is not a finite number is refused with a sentence instead of being coerced.
 change signals: ``changing`` on every arrow, wheel or button step (plots follow it live) and
 ``changed`` when an edit is finished (typed and confirmed, or the end of a run of steps), which
 the undo history records. Values cross its boundary in SI units; the field converts with its
-:class:`~app.units.FieldUnit`.
+:class:`~app.form.units.FieldUnit`.
 """
 
 from __future__ import annotations
@@ -16,7 +16,7 @@ from PySide6.QtCore import QSize, Qt, QTimer, Signal
 from PySide6.QtGui import QFocusEvent, QKeyEvent, QMouseEvent, QValidator, QWheelEvent
 from PySide6.QtWidgets import QAbstractSpinBox, QWidget
 
-from .units import FieldUnit
+from app.form.units import FieldUnit
 
 __all__ = ["NumberField", "NumberTextError", "parse_number", "format_number"]
 
@@ -146,13 +146,13 @@ class NumberField(QAbstractSpinBox):
         self.problemChanged.emit(message)
 
     # ------------------------------------------------------------------ stepping
-    def stepEnabled(self) -> QAbstractSpinBox.StepEnabledFlag:  # noqa: N802 (Qt override)
+    def stepEnabled(self) -> QAbstractSpinBox.StepEnabledFlag:  # Qt override
         if self.isReadOnly() or self._good is None:
             return QAbstractSpinBox.StepEnabledFlag.StepNone
         return (QAbstractSpinBox.StepEnabledFlag.StepUpEnabled
                 | QAbstractSpinBox.StepEnabledFlag.StepDownEnabled)
 
-    def stepBy(self, steps: int) -> None:  # noqa: N802 (Qt override)
+    def stepBy(self, steps: int) -> None:  # Qt override
         """Move by ``steps`` display steps and emit ``changing`` (live)."""
         base = self._live if self._live is not None else self._good
         if base is None or steps == 0:
@@ -177,31 +177,31 @@ class NumberField(QAbstractSpinBox):
         if self._live is not None:
             self.changed.emit(self._live, True)
 
-    def wheelEvent(self, event: QWheelEvent) -> None:  # noqa: N802 (Qt override)
+    def wheelEvent(self, event: QWheelEvent) -> None:  # Qt override
         """Wheel steps only a focused field, so scrolling the form never edits by accident."""
         if self.hasFocus():
             super().wheelEvent(event)
         else:
             event.ignore()
 
-    def mouseReleaseEvent(self, event: QMouseEvent) -> None:  # noqa: N802 (Qt override)
+    def mouseReleaseEvent(self, event: QMouseEvent) -> None:  # Qt override
         super().mouseReleaseEvent(event)
         self.finish_steps()
 
-    def keyPressEvent(self, event: QKeyEvent) -> None:  # noqa: N802 (Qt override)
+    def keyPressEvent(self, event: QKeyEvent) -> None:  # Qt override
         if event.key() == Qt.Key.Key_Escape and self._good is not None:
             self.lineEdit().setText(self._format(self._good))
             self.set_problem("")
             return
         super().keyPressEvent(event)
 
-    def keyReleaseEvent(self, event: QKeyEvent) -> None:  # noqa: N802 (Qt override)
+    def keyReleaseEvent(self, event: QKeyEvent) -> None:  # Qt override
         super().keyReleaseEvent(event)
         if event.key() in _STEP_KEYS and not event.isAutoRepeat():
             self.finish_steps()
 
     # ------------------------------------------------------------------ typed text
-    def validate(self, text: str, pos: int) -> QValidator.State:  # noqa: ARG002
+    def validate(self, text: str, pos: int) -> QValidator.State:  # type: ignore[override]
         """Every text may be typed; it is judged when the edit is finished."""
         return QValidator.State.Acceptable
 
@@ -225,7 +225,7 @@ class NumberField(QAbstractSpinBox):
             return
         self.changed.emit(self._unit.to_si(shown), False)
 
-    def focusOutEvent(self, event: QFocusEvent) -> None:  # noqa: N802 (Qt override)
+    def focusOutEvent(self, event: QFocusEvent) -> None:  # Qt override
         """Finish any steps; unparseable text goes back to the last good value."""
         self.finish_steps()
         super().focusOutEvent(event)
@@ -237,8 +237,8 @@ class NumberField(QAbstractSpinBox):
                 self.set_problem("")
 
     # ------------------------------------------------------------------ size
-    def sizeHint(self) -> QSize:  # noqa: N802 (Qt override)
+    def sizeHint(self) -> QSize:  # Qt override
         return QSize(118, super().sizeHint().height())
 
-    def minimumSizeHint(self) -> QSize:  # noqa: N802 (Qt override)
+    def minimumSizeHint(self) -> QSize:  # Qt override
         return QSize(64, super().minimumSizeHint().height())

@@ -33,9 +33,8 @@ def app_settings() -> QSettings:
 def recent_files() -> list[Path]:
     """Recently opened or saved design files, newest first, that still exist."""
     value = app_settings().value("files/recent", [])
-    if isinstance(value, str):
-        value = [value]
-    paths = [Path(str(v)) for v in (value or [])]
+    values: list[object] = [value] if isinstance(value, str) else list(value or [])  # type: ignore[call-overload]
+    paths = [Path(str(v)) for v in values]
     return [p for p in paths if p.is_file()][:MAX_RECENT]
 
 

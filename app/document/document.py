@@ -73,7 +73,7 @@ class EditCommand(QUndoCommand):
     mergeable edit of the same field.
     """
 
-    def __init__(self, document: "Document", old: Design, new: Design, text: str,
+    def __init__(self, document: Document, old: Design, new: Design, text: str,
                  field: str = "", mergeable: bool = False) -> None:
         super().__init__(text)
         self.document = document
@@ -91,7 +91,7 @@ class EditCommand(QUndoCommand):
     def id(self) -> int:
         return _MERGE_ID if self.mergeable else -1
 
-    def mergeWith(self, other: QUndoCommand) -> bool:  # noqa: N802 (Qt override)
+    def mergeWith(self, other: QUndoCommand) -> bool:  # Qt override
         if not (isinstance(other, EditCommand) and other.mergeable and self.mergeable
                 and other.field == self.field and other.old == self.new):
             return False

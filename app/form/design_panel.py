@@ -9,53 +9,39 @@ row with the core's reason while the document keeps its last valid design.
 
 from __future__ import annotations
 
-from typing import Any, Callable
+from collections.abc import Callable
+from functools import partial
+from typing import Any
 
 from PySide6.QtCore import Qt, Signal
-from PySide6.QtWidgets import (QFormLayout, QGroupBox, QHBoxLayout, QLabel, QListWidget,
-                               QListWidgetItem, QMenu, QPushButton, QScrollArea,
-                               QVBoxLayout, QWidget)
+from PySide6.QtWidgets import (
+    QFormLayout,
+    QGroupBox,
+    QLabel,
+    QScrollArea,
+    QVBoxLayout,
+    QWidget,
+)
 
-from core import Design, DesignError, design_to_dict
+from app.document.document import Document
+from app.form import design_edits
+from app.form.field_rows import ChoiceRow, NumberRow, Row, TextRow
+from app.form.labels import FIELD_LABELS, field_label
+from app.form.part_editor import PartsSection
+from app.form.units import UnitSystem
+from core import Design, DesignError, Result, design_to_dict
 from core.fileformat import get_value
-from core.materials import MATERIALS
 
-from . import design_edits
-from .document import Document
-from .field_rows import ChoiceRow, NumberRow, Row, TextRow
-from .units import UnitSystem
+__all__ = ["DesignPanel", "FIELD_LABELS", "field_label"]
 
-__all__ = ["DesignPanel", "FIELD_LABELS"]
 
-FIELD_LABELS = {
-    "name": "Name", "reference_temperature_c": "Reference temperature",
-    "latitude_deg": "Latitude", "elevation_m": "Elevation", "g_m_s2": "Local gravity",
-    "temperature_c": "Temperature", "pressure_hpa": "Air pressure",
-    "kind": "Kind", "stiffness_n_m_per_rad": "Spring stiffness",
-    "material": "Material", "top_m": "Top, below pivot", "length_m": "Length",
-    "diameter_m": "Diameter", "mass_kg": "Mass", "on": "Carried by",
-    "outer_diameter_m": "Outer diameter", "inner_diameter_m": "Inner diameter",
-    "shape": "Shape", "thickness_m": "Thickness", "height_m": "Height",
-    "centre_m": "Centre, below pivot", "at_m": "Position, below pivot",
-    "amplitude_deg": "Semi-arc", "quality_factor": "Q factor",
-    "period_s": "Target period", "beats_per_hour": "Target beats",
-    "pitch_m": "Rating nut pitch",
-}
-
-_SHAPES = [("lens", "Lens"), ("disc", "Disc"), ("cylinder", "Cylinder"), ("sphere", "Sphere")]
-_MOUNTS = [("clamp", "Clamped to a rod"), ("on_sleeve", "Resting on a sleeve")]
 _SUSPENSIONS = [("knife_edge", "Knife edge"), ("spring", "Suspension spring")]
 _TARGETS = [("period", "Period"), ("beats_per_hour", "Beats per hour"), ("none", "No target")]
 _UNSET_TEXT = {"quality_factor": "no damping", "pitch_m": "no nut"}
 _OPTIONAL_DEFAULTS = {"quality_factor": 10000.0, "pitch_m": 0.001, "g_m_s2": 9.80665}
 
 
-def field_label(path: str) -> str:
-    """A plain label for a field path (``parts[2].mount.centre_m`` → “Centre, below pivot”)."""
-    return FIELD_LABELS.get(path.rsplit(".", 1)[-1], path)
-
-
-class DesignPanel(QScrollArea):
+class DesignPanel(PartsSection, QScrollArea):
     """Left panel: every design field, grouped, with the parts list and the part editor.
 
     Signals
@@ -71,7 +57,7 @@ class DesignPanel(QScrollArea):
         self.setObjectName("DesignScroll")
         self.document = document
         self._system = system
-        self._result: Any = None
+        self._result: Result | None = None
         self._rows: dict[str, Row] = {}
         self._part_rows: dict[str, Row] = {}
         self._selected = 0
@@ -158,44 +144,6 @@ class DesignPanel(QScrollArea):
         self._choice(form, "suspension.kind", _SUSPENSIONS)
         self._number(form, "suspension.stiffness_n_m_per_rad")
 
-    def _build_parts_group(self) -> None:
-        box = QGroupBox("Parts")
-        outer = QVBoxLayout(box)
-        outer.setContentsMargins(8, 6, 8, 6)
-        self.parts_list = QListWidget()
-        self.parts_list.setAccessibleName("parts")
-        self.parts_list.setMaximumHeight(112)
-        self.parts_list.currentRowChanged.connect(self._on_part_selected)
-        outer.addWidget(self.parts_list)
-        buttons = QHBoxLayout()
-        self.add_button = QPushButton("Add part")
-        menu = QMenu(self.add_button)
-        for kind, label in design_edits.PART_KINDS.items():
-            menu.addAction(label, self._add_part_action(kind))
-        self.add_button.setMenu(menu)
-        self.duplicate_button = QPushButton("Duplicate")
-        self.duplicate_button.clicked.connect(self.duplicate_selected_part)
-        self.remove_button = QPushButton("Remove")
-        self.remove_button.clicked.connect(self.remove_selected_part)
-        for b in (self.add_button, self.duplicate_button, self.remove_button):
-            buttons.addWidget(b)
-        buttons.addStretch(1)
-        outer.addLayout(buttons)
-        self.parts_problem = QLabel()
-        self.parts_problem.setProperty("role", "problem")
-        self.parts_problem.setWordWrap(True)
-        self.parts_problem.setVisible(False)
-        outer.addWidget(self.parts_problem)
-        self.part_editor = QWidget()
-        self.part_form = QFormLayout(self.part_editor)
-        self.part_form.setContentsMargins(0, 4, 0, 0)
-        self.part_form.setVerticalSpacing(5)
-        self.part_form.setLabelAlignment(Qt.AlignmentFlag.AlignRight
-                                         | Qt.AlignmentFlag.AlignVCenter)
-        self.part_form.setFieldGrowthPolicy(QFormLayout.FieldGrowthPolicy.AllNonFixedFieldsGrow)
-        outer.addWidget(self.part_editor)
-        self._layout.addWidget(box)
-
     def _build_swing_group(self) -> None:
         form = self._group("Swing")
         self._number(form, "swing.amplitude_deg")
@@ -208,63 +156,6 @@ class DesignPanel(QScrollArea):
         self._bph_row = self._number(form, "target.beats_per_hour")
         self._number(form, "rating_nut.pitch_m", optional="Fitted")
 
-    # ================================================================== part editor
-    def _rebuild_part_editor(self, design: Design) -> None:
-        while self.part_form.rowCount():
-            self.part_form.removeRow(0)
-        self._part_rows = {}
-        if not 0 <= self._selected < len(design.parts):
-            return
-        part = design.parts[self._selected]
-        at = f"parts[{self._selected}]"
-        form, reg = self.part_form, self._part_rows
-        self._text(form, f"{at}.name", reg)
-        if part.kind == "bob":
-            self._choice(form, f"{at}.shape", _SHAPES, reg)
-        if part.kind != "weight":
-            self._choice(form, f"{at}.material", _material_choices(), reg)
-        if part.kind == "rod":
-            for key in ("top_m", "length_m", "diameter_m"):
-                self._number(form, f"{at}.{key}", registry=reg)
-        elif part.kind == "sleeve":
-            self._choice(form, f"{at}.on", _names(design_edits.rod_names(design)), reg)
-            for key in ("length_m", "outer_diameter_m", "inner_diameter_m"):
-                self._number(form, f"{at}.{key}", registry=reg)
-        elif part.kind == "bob":
-            self._build_bob_rows(design, part, at)
-        elif part.kind == "weight":
-            self._choice(form, f"{at}.on", _names(design_edits.rod_names(design)), reg)
-            self._number(form, f"{at}.at_m", registry=reg)
-            self._number(form, f"{at}.mass_kg", registry=reg)
-            return
-        self._number(form, f"{at}.mass_kg", optional="Given", registry=reg)
-
-    def _build_bob_rows(self, design: Design, part: Any, at: str) -> None:
-        form, reg = self.part_form, self._part_rows
-        mount = self._choice(form, f"{at}.mount.kind", _MOUNTS, reg)
-        mount_label = form.labelForField(mount)
-        if isinstance(mount_label, QLabel):
-            mount_label.setText("Mounting")
-        names = (design_edits.rod_names(design) if part.mount.kind == "clamp"
-                 else design_edits.sleeve_names(design))
-        self._choice(form, f"{at}.mount.on", _names(names), reg)
-        if part.mount.kind == "clamp":
-            self._number(form, f"{at}.mount.centre_m", registry=reg)
-        self._number(form, f"{at}.diameter_m", registry=reg)
-        if part.shape in ("disc", "lens"):
-            self._number(form, f"{at}.thickness_m", registry=reg)
-        elif part.shape == "cylinder":
-            self._number(form, f"{at}.height_m", registry=reg)
-
-    def _signature(self, design: Design) -> tuple[Any, ...]:
-        """What decides which rows the part editor has (rebuilt only when it changes)."""
-        if not 0 <= self._selected < len(design.parts):
-            return (self._selected,)
-        p = design.parts[self._selected]
-        return (self._selected, p.kind, getattr(p, "shape", None),
-                getattr(getattr(p, "mount", None), "kind", None),
-                tuple((q.kind, q.name) for q in design.parts))
-
     # ================================================================== model → widgets
     def _on_design_changed(self, design: Design) -> None:
         self._refresh_parts_list(design)
@@ -275,22 +166,6 @@ class DesignPanel(QScrollArea):
         self._write_values(design)
         if self._result is not None:
             self.set_result(self._result)
-
-    def _refresh_parts_list(self, design: Design) -> None:
-        labels = [design_edits.part_label(p) for p in design.parts]
-        current = [self.parts_list.item(i).text() for i in range(self.parts_list.count())]
-        self._selected = min(max(self._selected, 0), len(design.parts) - 1)
-        if labels != current:
-            self.parts_list.blockSignals(True)
-            self.parts_list.clear()
-            for text in labels:
-                QListWidgetItem(text, self.parts_list)
-            self.parts_list.blockSignals(False)
-        if self.parts_list.currentRow() != self._selected:
-            self.parts_list.blockSignals(True)
-            self.parts_list.setCurrentRow(self._selected)
-            self.parts_list.blockSignals(False)
-        self.remove_button.setEnabled(len(design.parts) > 1)
 
     def _write_values(self, design: Design) -> None:
         d = design_to_dict(design)
@@ -315,7 +190,8 @@ class DesignPanel(QScrollArea):
 
     @staticmethod
     def _form_label(row: QWidget) -> QWidget:
-        form = row.parentWidget().layout() if row.parentWidget() else None
+        parent = row.parentWidget()
+        form = parent.layout() if parent is not None else None
         if isinstance(form, QFormLayout):
             label = form.labelForField(row)
             if label is not None:
@@ -331,15 +207,7 @@ class DesignPanel(QScrollArea):
         """The row editing ``path`` (KeyError when it is not shown)."""
         return self.all_rows()[path]
 
-    def selected_part(self) -> int:
-        """Index of the part shown in the part editor."""
-        return self._selected
-
-    def select_part(self, index: int) -> None:
-        """Show part ``index`` in the part editor."""
-        self.parts_list.setCurrentRow(index)
-
-    def set_result(self, result: Any) -> None:
+    def set_result(self, result: Result) -> None:
         """Remember the latest analysis: unticked optional fields show the core's own value
         (a part's mass from its material, gravity from latitude), and ticking one starts
         from it."""
@@ -426,16 +294,16 @@ class DesignPanel(QScrollArea):
         design = self.document.design
         text = f"Change {field_label(path).lower()}"
         if path == "suspension.kind":
-            make: Callable[[], Design] = lambda: design_edits.set_suspension_kind(design, key)
+            make: Callable[[], Design] = partial(design_edits.set_suspension_kind, design, key)
         elif path == "target.kind":
-            make = lambda: design_edits.set_target_kind(design, key)  # noqa: E731
+            make = partial(design_edits.set_target_kind, design, key)
         elif path.endswith(".shape"):
-            make = lambda: design_edits.set_bob_shape(design, self._selected, key)  # noqa: E731
+            make = partial(design_edits.set_bob_shape, design, self._selected, key)
         elif path.endswith(".mount.kind"):
-            make = lambda: design_edits.set_bob_mount(design, self._selected, key)  # noqa: E731
+            make = partial(design_edits.set_bob_mount, design, self._selected, key)
             text = "Change mounting"
         else:
-            make = lambda: design_edits.set_value(design, path, key)  # noqa: E731
+            make = partial(design_edits.set_value, design, path, key)
         if not self._apply(make, path, text):
             self._write_values(self.document.design)
             self._mark_again(path)
@@ -465,67 +333,3 @@ class DesignPanel(QScrollArea):
             row.mark(message)
         else:
             self.show_parts_problem(message)
-
-    def show_parts_problem(self, message: str) -> None:
-        """Say under the parts list why a part edit was refused."""
-        self.parts_problem.setText(message)
-        self.parts_problem.setVisible(bool(message))
-
-    # ================================================================== parts list
-    def _on_part_selected(self, index: int) -> None:
-        if index < 0 or index == self._selected and self._part_rows:
-            return
-        self._selected = index
-        design = self.document.design
-        self._editor_signature = self._signature(design)
-        self._rebuild_part_editor(design)
-        self._write_values(design)
-        if self._result is not None:
-            self.set_result(self._result)
-        self.partSelected.emit(index)
-
-    def _add_part_action(self, kind: str) -> Callable[[], None]:
-        def run() -> None:
-            self.add_part(kind)
-        return run
-
-    def add_part(self, kind: str) -> bool:
-        """Append a part of ``kind`` ("rod", "sleeve", "bob", "weight") and select it."""
-        try:
-            design, index = design_edits.add_part(self.document.design, kind)
-        except DesignError as exc:
-            self.show_parts_problem(exc.reason)
-            return False
-        self._selected = index
-        self.document.commit(design, f"Add {design_edits.PART_KINDS[kind].lower()}", "parts")
-        return True
-
-    def duplicate_selected_part(self) -> bool:
-        """Copy the selected part (with a new name) and select the copy."""
-        try:
-            design, index = design_edits.duplicate_part(self.document.design, self._selected)
-        except DesignError as exc:
-            self.show_parts_problem(f"Cannot duplicate: {exc.reason}")
-            return False
-        self._selected = index
-        self.document.commit(design, "Duplicate part", "parts")
-        return True
-
-    def remove_selected_part(self) -> bool:
-        """Remove the selected part (refused, with a reason, when another part hangs on it)."""
-        try:
-            design = design_edits.remove_part(self.document.design, self._selected)
-        except DesignError as exc:
-            self.show_parts_problem(f"Cannot remove: {exc.reason}")
-            return False
-        self._selected = max(0, self._selected - 1)
-        self.document.commit(design, "Remove part", "parts")
-        return True
-
-
-def _material_choices() -> list[tuple[str, str]]:
-    return [(key, m.label) for key, m in MATERIALS.items()]
-
-
-def _names(names: list[str]) -> list[tuple[str, str]]:
-    return [(n, n) for n in names]

@@ -14,26 +14,22 @@ from __future__ import annotations
 
 import os
 import sys
+from collections.abc import Callable
 from functools import partial
 from pathlib import Path
-from typing import Any, Callable
+from typing import TYPE_CHECKING, Any, cast
+
+if TYPE_CHECKING:
+    from PySide6.QtWidgets import QWidget
+
+    from app.views.base import View
+    from core import Result
 
 __all__ = ["export_all", "PLOT_SIZE_PX", "REPORT_PLOT_SIZE_PX", "ensure_application"]
 
 PLOT_SIZE_PX = (1000, 650)
 REPORT_PLOT_SIZE_PX = (800, 520)  # smaller layout → larger text relative to the plot on paper
 _WRITE_ERRORS = (OSError, ValueError, RuntimeError)
-
-_CAPTIONS = {
-    "motion": "Angle against time after release from rest at the working semi-arc: the exact "
-              "motion and the small-angle model, and their difference (right axis).",
-    "phase": "Angular velocity against angle: this swing's orbit, neighbouring semi-arcs and "
-             "the separatrix between swinging and going over the top.",
-    "period_curve": "Exact period and circular error against semi-arc; the working semi-arc "
-                    "is marked.",
-    "swing_preview": "The pendulum to scale at release (full semi-arc), with the paths of the "
-                     "bob centre and of the lowest point over the swing.",
-}
 
 _app_ref: Any = None  # keeps the application alive while exporting
 
@@ -74,14 +70,14 @@ def _output_dir(out_dir: str | os.PathLike[str]) -> Path:
     return out
 
 
-def _plot_widgets(result: Any, app: Any) -> list[Any]:
-    """The three plots and the swing preview, drawn without appearing on any screen."""
+def _plot_widgets(result: Result, app: Any) -> list[View]:
+    """The views the report shows (:func:`app.views.catalogue.report_views`), drawn without
+    appearing on any screen."""
     from PySide6 import QtCore
 
-    from .plots import MotionPlot, PeriodCurvePlot, PhasePlot
-    from .preview import SwingPreview
+    from app.views.catalogue import report_views
 
-    widgets: list[Any] = [MotionPlot(), PhasePlot(), PeriodCurvePlot(), SwingPreview()]
+    widgets = report_views()
     for w in widgets:
         w.setAttribute(QtCore.Qt.WidgetAttribute.WA_DontShowOnScreen, True)
         w.show()
@@ -89,24 +85,23 @@ def _plot_widgets(result: Any, app: Any) -> list[Any]:
     return widgets
 
 
-def _lay_out(widgets: list[Any], result: Any, app: Any, size: tuple[int, int]) -> None:
-    """Resize every widget to ``size`` (px) and draw ``result`` in it; the swing preview shows
-    the moment of release (full semi-arc)."""
+def _lay_out(widgets: list[View], result: Result, app: Any, size: tuple[int, int]) -> None:
+    """Resize every widget to ``size`` (px) and draw ``result`` in it as a still picture (the
+    swing preview shows the moment of release, full semi-arc)."""
     for w in widgets:
         w.resize(*size)
     app.processEvents()
     for w in widgets:
         w.show_result(result)
-    widgets[-1].set_time(0.0)
+        w.pose_for_export()
     app.processEvents()
 
 
 def _write(path: Path, writer: Callable[[Path], Any]) -> Path:
     """Run ``writer(temporary path)`` and rename the result to ``path``; any failure becomes
     ``DesignError(field="out")``."""
+    from app.report.atomic_files import atomic_path
     from core import DesignError
-
-    from .atomic_files import atomic_path
 
     try:
         with atomic_path(path) as tmp:
@@ -115,6 +110,18 @@ def _write(path: Path, writer: Callable[[Path], Any]) -> Path:
         reason = exc.strerror if isinstance(exc, OSError) and exc.strerror else str(exc)
         raise DesignError("out", f"could not write {path}: {reason}") from None
     return path
+
+
+def _write_text(path: Path, text: str) -> Path:
+    """Write ``text`` through the core's atomic writer; a failure becomes
+    ``DesignError(field="out")``."""
+    from app.report.atomic_files import write_text_atomic
+    from core import DesignError
+
+    try:
+        return write_text_atomic(path, text)
+    except DesignError as exc:
+        raise DesignError("out", f"could not write {path}: {exc.reason}") from None
 
 
 def export_all(file: str | os.PathLike[str], out_dir: str | os.PathLike[str]) -> list[Path]:
@@ -138,7 +145,7 @@ def export_all(file: str | os.PathLike[str], out_dir: str | os.PathLike[str]) ->
     return export_result(result, out_dir, Path(file).name)
 
 
-def export_result(result: Any, out_dir: str | os.PathLike[str], source_name: str
+def export_result(result: Result, out_dir: str | os.PathLike[str], source_name: str
                   ) -> list[Path]:
     """Write every plot (PNG and SVG), the CSVs and the PDF report of ``result`` into
     ``out_dir``; ``source_name`` is the design's file name shown in the report.
@@ -148,9 +155,8 @@ def export_result(result: Any, out_dir: str | os.PathLike[str], source_name: str
     core.DesignError
         ``field="out"`` when the output cannot be written.
     """
-    from . import data_export
-    from .plots import export_plot
-    from .report_pdf import widget_image
+    from app.report import csv_data as data_export
+    from app.report.pdf import widget_image
 
     app = ensure_application()
     out = _output_dir(out_dir)
@@ -159,14 +165,14 @@ def export_result(result: Any, out_dir: str | os.PathLike[str], source_name: str
     try:
         for w in widgets:
             for suffix in (".png", ".svg"):
-                written.append(_write(out / f"{w.slug}{suffix}", partial(export_plot, w)))
-        for name, write_csv in (("motion.csv", data_export.write_motion_csv),
-                                ("period_curve.csv", data_export.write_period_curve_csv),
-                                ("parts.csv", data_export.write_parts_csv)):
-            written.append(_write(out / name, partial(write_csv, result)))
+                written.append(_write(out / f"{w.slug}{suffix}", w.export))
+        for name, make_csv in (("motion.csv", data_export.motion_csv),
+                               ("period_curve.csv", data_export.period_curve_csv),
+                               ("parts.csv", data_export.parts_csv)):
+            written.append(_write_text(out / name, make_csv(result)))
         _lay_out(widgets, result, app, REPORT_PLOT_SIZE_PX)
-        images = {w.title: widget_image(w) for w in widgets}
-        captions = {w.title: _CAPTIONS.get(w.slug, "") for w in widgets}
+        images = {w.title: widget_image(cast("QWidget", w)) for w in widgets}
+        captions = {w.title: w.caption for w in widgets}
         written.append(_write(out / "report.pdf", partial(
             _write_report, result, images, captions, source_name)))
     finally:
@@ -174,21 +180,20 @@ def export_result(result: Any, out_dir: str | os.PathLike[str], source_name: str
     return written
 
 
-def _write_report(result: Any, images: dict[str, Any], captions: dict[str, str],
+def _write_report(result: Result, images: dict[str, Any], captions: dict[str, str],
                   source_name: str, path: Path) -> Path:
-    from .report_pdf import write_report_pdf
+    from app.report.pdf import write_report_pdf
 
     return write_report_pdf(result, path, images, captions=captions, source_name=source_name)
 
 
-def _dispose(widgets: list[Any]) -> None:
+def _dispose(widgets: list[View]) -> None:
     """Hide the widgets and delete them now (not through ``PlotWidget.close``, which can crash
     on a shown plot whose layout holds extra view boxes)."""
     from PySide6 import QtCore
 
     for w in widgets:
-        if hasattr(w, "set_playing"):
-            w.set_playing(False)
+        w.pose_for_export()  # stops an animation
         w.hide()
         w.deleteLater()
     QtCore.QCoreApplication.sendPostedEvents(None, QtCore.QEvent.Type.DeferredDelete)

@@ -15,12 +15,14 @@ import csv
 import io
 import math
 import os
+from collections.abc import Iterable, Sequence
 from pathlib import Path
-from typing import Any, Iterable, Sequence
+from typing import Any
 
 import numpy as np
 
-from .atomic_files import write_text_atomic
+from app.report.atomic_files import write_text_atomic
+from core import Result
 
 __all__ = ["MOTION_COLUMNS", "PERIOD_CURVE_COLUMNS", "PARTS_COLUMNS", "motion_csv",
            "period_curve_csv", "parts_csv", "write_motion_csv", "write_period_curve_csv",
@@ -50,7 +52,7 @@ def _table(header: Sequence[str], rows: Iterable[Sequence[str]]) -> str:
     return buf.getvalue()
 
 
-def motion_csv(result: Any) -> str:
+def motion_csv(result: Result) -> str:
     """The motion after release from rest at the semi-arc: time (s), exact and linearised angle
     (°), angular velocity (°/s) and exact minus linearised angle (°)."""
     m = result.motion
@@ -60,14 +62,14 @@ def motion_csv(result: Any) -> str:
     return _table(MOTION_COLUMNS, ([_number(v) for v in row] for row in columns))
 
 
-def period_curve_csv(result: Any) -> str:
+def period_curve_csv(result: Result) -> str:
     """Exact period (s) and circular error (s/day) against semi-arc (°)."""
     c = result.period_curve
     columns = np.column_stack([c.amplitude_deg, c.period_s, c.circular_error_s_per_day])
     return _table(PERIOD_CURVE_COLUMNS, ([_number(v) for v in row] for row in columns))
 
 
-def parts_csv(result: Any) -> str:
+def parts_csv(result: Result) -> str:
     """Every part as it hangs at the site's temperature: mass (kg) and extents (m below the
     pivot; width across the plane of swing)."""
     rows = ([b.name, b.kind, b.shape, b.material, _number(b.mass_kg), _number(b.centre_m),
@@ -76,16 +78,16 @@ def parts_csv(result: Any) -> str:
     return _table(PARTS_COLUMNS, rows)
 
 
-def write_motion_csv(result: Any, path: str | os.PathLike[str]) -> Path:
+def write_motion_csv(result: Result, path: str | os.PathLike[str]) -> Path:
     """Write :func:`motion_csv` to ``path`` atomically; returns the path."""
     return write_text_atomic(path, motion_csv(result))
 
 
-def write_period_curve_csv(result: Any, path: str | os.PathLike[str]) -> Path:
+def write_period_curve_csv(result: Result, path: str | os.PathLike[str]) -> Path:
     """Write :func:`period_curve_csv` to ``path`` atomically; returns the path."""
     return write_text_atomic(path, period_curve_csv(result))
 
 
-def write_parts_csv(result: Any, path: str | os.PathLike[str]) -> Path:
+def write_parts_csv(result: Result, path: str | os.PathLike[str]) -> Path:
     """Write :func:`parts_csv` to ``path`` atomically; returns the path."""
     return write_text_atomic(path, parts_csv(result))

@@ -24,16 +24,15 @@ import json
 import os
 import uuid
 from dataclasses import dataclass
-from datetime import datetime, timezone
+from datetime import UTC, datetime
 from pathlib import Path
 from typing import Any
 
 from PySide6.QtCore import QLockFile, QObject, QStandardPaths, QTimer, Signal
 
+from app.document.document import Document, read_design_file
 from core import Design, DesignError, dumps_design
 from core.fileformat import write_text_atomic
-
-from .document import Document, read_design_file
 
 __all__ = ["AUTOSAVE_INTERVAL_S", "DATA_DIR_ENV", "RECOVERY_FORMAT", "Autosaver",
            "RecoveryEntry", "data_folder", "find_orphans", "read_entry", "recovery_folder",
@@ -293,7 +292,7 @@ class Autosaver(QObject):
             info = {"format": RECOVERY_FORMAT, "version": RECOVERY_VERSION,
                     "original_path": None if state[1] is None else str(state[1]),
                     "name": state[0].name,
-                    "saved_at": datetime.now(timezone.utc).isoformat(timespec="seconds"),
+                    "saved_at": datetime.now(UTC).isoformat(timespec="seconds"),
                     "design_file": design_path.name, "pid": os.getpid()}
             write_text_atomic(info_path, json.dumps(info, indent=2, ensure_ascii=False) + "\n")
         except DesignError as exc:
