@@ -19,6 +19,7 @@ from .design import Design
 from .errors import DesignError, guarded
 from .fileformat import check_number, design_from_dict, design_to_dict, field_range, get_value, set_in_dict
 from .model import SECONDS_PER_DAY, pendulum_state
+from .pivot import shift_pivot  # kept here too: the sweep's --vary pivot uses it
 from .tuning import sensitivities
 
 __all__ = ["Solution", "solve_field", "SweepTable", "sweep_field", "shift_pivot"]
@@ -153,19 +154,6 @@ def _no_solution(field: _Field, goal: Goal, xs: FloatArray, ys: FloatArray,
     raise DesignError(field.path, f"no value from {xs[ok][0]:.6g} to {xs[ok][-1]:.6g} nulls the "
                       f"temperature coefficient; the nearest is {x:.6g}, leaving "
                       f"{y:.4g} s/day/K")
-
-
-def shift_pivot(design_dict: dict[str, Any], shift_m: float) -> dict[str, Any]:
-    """A design dict with the pivot moved ``shift_m`` down the pendulum (every position −shift)."""
-    new = set_in_dict(design_dict, "name", design_dict.get("name", ""))
-    for part in new.get("parts", []):
-        for key in ("top_m", "at_m"):
-            if key in part:
-                part[key] = part[key] - shift_m
-        mount = part.get("mount")
-        if isinstance(mount, dict) and "centre_m" in mount:
-            mount["centre_m"] = mount["centre_m"] - shift_m
-    return new
 
 
 @dataclass(frozen=True)
