@@ -113,7 +113,13 @@ def deepest_and_reach_m(bodies: tuple[Body, ...], amplitude_rad: float) -> tuple
 
 
 def centre_sweep_width_m(centre_m: float, amplitude_rad: float) -> float:
-    """Width swept by a point ``centre_m`` below the pivot: 2c·sin(min(θ₀, 90°)), m."""
+    """Width swept by a point ``centre_m`` below the pivot: 2c·sin(min(θ₀, 90°)), m.
+
+    Examples
+    --------
+    >>> round(centre_sweep_width_m(0.55, math.radians(170.0)), 12)
+    1.1
+    """
     return 2.0 * abs(centre_m) * math.sin(min(amplitude_rad, math.pi / 2))
 
 
