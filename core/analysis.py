@@ -14,13 +14,14 @@ import numpy as np
 from numpy.typing import NDArray
 
 from .cable import CableFigures, cable_figures
+from .constants import SECONDS_PER_DAY
 from .design import Design, beats_per_hour
 from .errors import DesignError, guarded
 from .exhibit import ExhibitFigures, exhibit_figures
 from .exhibit_geometry import HEADROOM_M, SweptGeometry, swept_geometry
 from .fileformat import design_from_dict, design_to_dict
 from .mass_properties import Body
-from .model import SECONDS_PER_DAY, PendulumState, pendulum_state
+from .model import PendulumState, pendulum_state
 from .motion import Motion, motion
 from .period import period_exact
 from .phase import PhasePortrait, phase_portrait
@@ -193,15 +194,15 @@ def _validated(design: Design | dict[str, Any]) -> Design:
     """Check any design object (or a parsed file dict) through the one validator."""
     if isinstance(design, Design):
         try:
-            return design_from_dict(design_to_dict(design))
-        except DesignError:
-            raise
-        except Exception as exc:
+            text = design_to_dict(design)
+        except (AttributeError, TypeError, KeyError) as exc:  # a Design built by hand, badly
             raise DesignError("design", f"is not a complete design ({type(exc).__name__})"
                               ) from None
+        return design_from_dict(text)
     if isinstance(design, dict):
         return design_from_dict(design)
-    raise DesignError("design", f"must be a Design, not {type(design).__name__}")
+    raise TypeError(f"analyse needs a Design or a parsed design file (a dict), not "
+                    f"{type(design).__name__}")
 
 
 def _warnings(design: Design, state: PendulumState) -> tuple[str, ...]:
@@ -232,18 +233,14 @@ def _warnings(design: Design, state: PendulumState) -> tuple[str, ...]:
 
 
 def _purpose(design: Design) -> str:
-    purpose = getattr(design, "purpose", "clock")
-    return purpose if purpose in ("clock", "exhibit") else "clock"
+    return design.purpose
 
 
 def _room(design: Design) -> tuple[float | None, float | None]:
     """(pivot height above the floor, barrier radius), m, from the design's exhibit section."""
-    section = getattr(design, "exhibit", None)
-    if section is None:
+    if design.exhibit is None:
         return None, None
-    get = section.get if isinstance(section, dict) else (
-        lambda key: getattr(section, key, None))
-    return get("pivot_above_floor_m"), get("barrier_radius_m")
+    return design.exhibit.pivot_above_floor_m, design.exhibit.barrier_radius_m
 
 
 def _exhibit_warnings(design: Design, geometry: SweptGeometry, cable: CableFigures

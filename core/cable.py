@@ -29,10 +29,10 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass, replace
 
+from .constants import SECONDS_PER_DAY
 from .design import Bob, ClampMount, Design, Rod, Sleeve, Weight
 from .mass_properties import Body, mass_properties
-from .materials import MATERIALS
-from .model import SECONDS_PER_DAY, PendulumState
+from .model import PendulumState
 from .period import period_at
 
 __all__ = ["RodLoad", "CableFigures", "cable_figures"]
@@ -91,8 +91,8 @@ class CableFigures:
     peak_stress_ratio_basis: str | None
 
 
-def _strength(material: str) -> tuple[float | None, str | None]:
-    m = MATERIALS.get(material)
+def _strength(design: Design, material: str) -> tuple[float | None, str | None]:
+    m = design.material(material)
     for attr, kind in (("yield_strength_pa", "yield"), ("tensile_strength_pa", "tensile")):
         value = getattr(m, attr, None)
         if isinstance(value, (int, float)) and value > 0:
@@ -122,21 +122,26 @@ def _carriers(design: Design, bodies: dict[str, Body]) -> dict[str, tuple[str, f
                 sleeve = design.part(p.mount.on)
                 assert isinstance(sleeve, Sleeve)
                 out[p.name] = (sleeve.on, end_of(sleeve.on))
-        elif isinstance(p, Rod):
-            parent = getattr(getattr(p, "hangs_from", None), "part", None)
-            if parent is not None and parent in bodies:
-                host = design.part(parent)
-                rod_name = host.on if isinstance(host, Sleeve) else parent
-                out[p.name] = (rod_name, end_of(rod_name))
+        elif isinstance(p, Rod) and p.hangs_from is not None:
+            host = design.part(p.hangs_from.part)
+            if isinstance(host, Sleeve):  # through the sleeve, onto its rod's lower end
+                out[p.name] = (host.on, end_of(host.on))
+            elif isinstance(host, Rod):
+                upper = p.hangs_from.end == "upper"
+                out[p.name] = (host.name, 0.0 if upper else end_of(host.name))
     return out
 
 
 def _descendants(name: str, carriers: dict[str, tuple[str, float]]) -> list[str]:
-    out = []
-    for child, (host, _a) in carriers.items():
-        if host == name:
-            out.append(child)
-            out.extend(_descendants(child, carriers))
+    """Every part hanging, directly or through others, from part ``name``."""
+    out: list[str] = []
+    todo = [name]
+    while todo:
+        here = todo.pop()
+        for child, (host, _a) in carriers.items():
+            if host == here and child not in out and child != name:
+                out.append(child)
+                todo.append(child)
     return out
 
 
@@ -161,7 +166,7 @@ def cable_figures(design: Design, state: PendulumState, peak_angular_velocity_ra
         b = bodies[rod.name]
         length = b.bottom_m - b.top_m
         area = math.pi * b.width_m**2 / 4.0
-        modulus = MATERIALS[rod.material].youngs_modulus_pa
+        modulus = design.material(rod.material).youngs_modulus_pa
         direct = [(c, a) for c, (host, a) in carriers.items() if host == rod.name]
         hung = [(total_mass(c), a) for c, a in direct]
         ea = modulus * area
@@ -176,7 +181,7 @@ def cable_figures(design: Design, state: PendulumState, peak_angular_velocity_ra
         shift[rod.name] = stretch
         members = [rod.name, *_descendants(rod.name, carriers)]
         tension = sum(bodies[n].mass_kg * (g + bodies[n].centre_m * w2) for n in members)
-        strength, kind = _strength(rod.material)
+        strength, kind = _strength(design, rod.material)
         loads.append(RodLoad(rod.name, rod.material, area, modulus, total_mass(rod.name),
                              stretch, tension, tension / area, strength, kind))
     if not loads:

@@ -89,3 +89,34 @@ class TestPeakStress:
         assert r.cable.peak_stress_ratio_basis == "yield"
         assert r.cable.peak_stress_ratio > 0.2
         assert any("safety factor" in w for w in r.warnings)
+
+
+class TestFormat2:
+    def test_rods_in_series_and_a_users_material(self) -> None:
+        # An upper steel rod carries a lower rod of the user's own material (E = 1.08e11 Pa,
+        # given in the file) hanging from its lower end, and a bob at the bottom (DESIGN §8).
+        # Hooke's law per rod: the upper one carries the lower rod and the bob over its whole
+        # length, each its own weight over half of it.
+        parts = [rod(name="upper", length_m=10.0, diameter_m=0.003, mass_kg=0.5),
+                 rod(name="lower", material="zinc", length_m=10.0, diameter_m=0.004,
+                     mass_kg=0.8),
+                 bob("sphere", diameter_m=1e-5, mass_kg=50.0,
+                     mount=clamp(on="lower", centre_m=20.0))]
+        del parts[1]["top_m"]
+        parts[1]["hangs_from"] = {"part": "upper", "end": "lower"}
+        d = design(parts)
+        d.update({"version": 2, "materials": {"zinc": {
+            "name": "Zinc", "density_kg_m3": 7140.0, "expansion_per_k": 3.0e-5,
+            "youngs_modulus_pa": 1.08e11, "source": "invented for the test"}}})
+        r = analyse(design_from_dict(d))
+        a_up, a_low = math.pi * 0.003**2 / 4, math.pi * 0.004**2 / 4
+        up = G_N * (0.5 * 5.0 + (0.8 + 50.0) * 10.0) / (E_STEEL * a_up)
+        low = G_N * (0.8 * 5.0 + 50.0 * 10.0) / (1.08e11 * a_low)
+        by_name = {x.name: x for x in r.cable.rods}
+        assert by_name["upper"].stretch_m == pytest.approx(up, rel=1e-9)
+        assert by_name["lower"].stretch_m == pytest.approx(low, rel=1e-9)
+        assert r.cable.stretch_m == pytest.approx(up + low, rel=1e-9)
+        # the bob drops by both stretches: a point pendulum 20 m long [pub] with light rods
+        # would lose 86400 (√(L/(L + ΔL)) − 1); the rods' own 1.3 kg shift this by < 3 %.
+        expected = 86400 * (math.sqrt(20.0 / (20.0 + up + low)) - 1)
+        assert r.cable.stretch_rate_s_per_day == pytest.approx(expected, rel=0.03)

@@ -11,7 +11,6 @@ import math
 from fractions import Fraction
 from typing import Any
 
-import mpmath
 import pytest
 
 from core import analyse, design_from_dict

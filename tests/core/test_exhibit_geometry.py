@@ -149,15 +149,29 @@ class TestFloorAndBarrier:
         assert got == pytest.approx(expected, abs=1e-5)
 
 
-def test_planning_keys_through_analyse(monkeypatch: Any) -> None:
-    # Until the design file carries the exhibit section (DESIGN §8), the room is read through
-    # one helper; here it is given directly. Floor clearance = pivot height − lowest point.
-    import core.analysis as analysis
-    monkeypatch.setattr(analysis, "_room", lambda _d: (25.0, 1.5))
-    r = _sphere(5.0)
+def _exhibit_file(floor_m: float, barrier_m: float | None) -> dict[str, Any]:
+    parts = [rod(length_m=24.0, diameter_m=0.004),
+             bob("sphere", diameter_m=0.3, mass_kg=200.0, mount=clamp(centre_m=24.0))]
+    d = design(parts, amplitude_deg=5.0)
+    d.update({"version": 2, "purpose": "exhibit",
+              "exhibit": {"pivot_above_floor_m": floor_m, "barrier_radius_m": barrier_m}})
+    return d
+
+
+def test_planning_keys_through_analyse() -> None:
+    # A format-2 file with a floor and a barrier (DESIGN §8). Floor clearance = pivot height −
+    # lowest point; barrier margin = radius − reach (plain geometry).
+    r = analyse(design_from_dict(_exhibit_file(25.0, 1.5)))
     out = r.report_dict()
+    assert out["purpose"] == "exhibit"
     assert out["floor_clearance_m"] == pytest.approx(25.0 - 24.15, rel=1e-12)
     assert out["barrier_margin_m"] == pytest.approx(
         1.5 - (24.0 * math.sin(math.radians(5.0)) + 0.15), rel=1e-12)
+    assert out["visitors_within_reach"] is True
     assert any("Visitors can be hit" in w for w in r.warnings)
     assert any("beyond the barrier" in w for w in r.warnings)
+    safe = analyse(design_from_dict(_exhibit_file(27.0, 3.0)))
+    assert safe.warnings == ()
+    assert safe.report_dict()["barrier_margin_m"] > 0
+    no_barrier = analyse(design_from_dict(_exhibit_file(25.0, None))).report_dict()
+    assert no_barrier["barrier_margin_m"] is None and no_barrier["visitors_within_reach"]

@@ -133,7 +133,7 @@ class TestShiftPivot:
     def test_sweep_uses_it(self) -> None:
         d = design_from_dict(design(_parts()))
         table = sweep_field(d, "pivot", -0.1, 0.4, 6)
-        for x, t in zip(table.values, table.period_s):
+        for x, t in zip(table.values, table.period_s, strict=True):
             moved = design_from_dict(shift_pivot(design_to_dict(d), float(x)))
             assert t == pytest.approx(analyse(moved).period_s, rel=1e-15)
 
