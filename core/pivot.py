@@ -46,8 +46,8 @@ class PivotFigures:
     ----------
     radius_of_gyration_m : k_c = √(I_cm/M) about the centre of mass (vacuum), m.
     shortest_period_pivot_m : distance of the shortest-period pivot above the centre of mass, m
-        (same site, air and spring).
-    shortest_period_small_s : small-arc period with the pivot there, s.
+        (same site, air and spring); None for a body lighter than the air it displaces.
+    shortest_period_small_s : small-arc period with the pivot there, s (None with it).
     conjugate_pivot_m : distance of the conjugate pivot *below* the centre of mass (the body
         turned over to hang from it), m; None when no such pivot exists.
     pivot_sensitivity_s_per_day_per_mm : rate change for the pivot moved 1 mm up the body
@@ -55,8 +55,8 @@ class PivotFigures:
     """
 
     radius_of_gyration_m: float
-    shortest_period_pivot_m: float
-    shortest_period_small_s: float
+    shortest_period_pivot_m: float | None
+    shortest_period_small_s: float | None
     conjugate_pivot_m: float | None
     pivot_sensitivity_s_per_day_per_mm: float
 
@@ -82,7 +82,8 @@ def _coefficients(state: PendulumState) -> tuple[float, float, float, float, flo
                 + (b.mass_kg + rho * b.added_mass_coefficient * b.volume_m3)
                 * (b.centre_m - s_i) ** 2 for b in bodies)
     g_ma = g * sum(b.mass_kg - rho * b.volume_m3 for b in bodies)
-    return m_i, s_i, i_min, g_ma, state.torque_n_m / g_ma + state.stiffness_n_m_per_rad / g_ma
+    s_e = (state.torque_n_m + state.stiffness_n_m_per_rad) / g_ma if g_ma > 0.0 else math.nan
+    return m_i, s_i, i_min, g_ma, s_e
 
 
 def pivot_figures(state: PendulumState) -> PivotFigures:
@@ -90,6 +91,13 @@ def pivot_figures(state: PendulumState) -> PivotFigures:
     m_i, s_i, i_min, g_ma, s_e = _coefficients(state)
     h = state.mass.centre_of_mass_m
     k = state.stiffness_n_m_per_rad
+    rho = state.air_density_kg_m3
+    d_inertia = 2.0 * _MM * sum((b.mass_kg + rho * b.added_mass_coefficient * b.volume_m3)
+                                * b.centre_m for b in state.bodies)
+    sensitivity = state.rate_change(d_inertia, g_ma * _MM)
+    k_c = radius_of_gyration_m(state.bodies)
+    if not g_ma > 0.0:  # buoyant overall: lowering the pivot never shortens the period
+        return PivotFigures(k_c, None, None, None, sensitivity)
     delta = s_e - s_i
     e_star = math.sqrt(delta * delta + i_min / m_i)
     shortest = 2.0 * math.pi * math.sqrt((m_i * (e_star - delta) ** 2 + i_min) / (g_ma * e_star))
@@ -107,12 +115,7 @@ def pivot_figures(state: PendulumState) -> PivotFigures:
         pivots = [e2 + s_e - 2.0 * k / g_ma for e2 in roots if e2 > 0.0]
         if pivots:
             conjugate = min(pivots, key=lambda z: abs(z - h - guess)) - h
-    rho = state.air_density_kg_m3
-    d_inertia = 2.0 * _MM * sum((b.mass_kg + rho * b.added_mass_coefficient * b.volume_m3)
-                                * b.centre_m for b in state.bodies)
-    sensitivity = state.rate_change(d_inertia, g_ma * _MM)
-    return PivotFigures(radius_of_gyration_m(state.bodies), h - (s_e - e_star), shortest,
-                        conjugate, sensitivity)
+    return PivotFigures(k_c, h - (s_e - e_star), shortest, conjugate, sensitivity)
 
 
 def shift_pivot(design_dict: dict[str, Any], shift_m: float) -> dict[str, Any]:

@@ -227,10 +227,13 @@ def _check_planning(r: Result, has_bob: bool) -> None:
     assert (g.bob_rise_m is None) == (not has_bob)
     for value in (g.lowest_point_m, g.outer_reach_m, g.outer_sweep_m, c.stretch_m,
                   c.stretch_rate_s_per_day, c.peak_stress_pa, p.radius_of_gyration_m,
-                  p.shortest_period_pivot_m, p.shortest_period_small_s,
                   p.pivot_sensitivity_s_per_day_per_mm, *([] if not has_bob else
                                                            [g.bob_rise_m])):
         assert _finite(value), value
+    # None only for a body lighter than the air it displaces (no shortest-period pivot)
+    buoyant = sum(b.mass_kg - r.air_density_kg_m3 * b.volume_m3 for b in r.bodies) <= 0
+    for value in (p.shortest_period_pivot_m, p.shortest_period_small_s):
+        assert (value is None) == buoyant and (value is None or _finite(value))
     assert p.conjugate_pivot_m is None or _finite(p.conjugate_pivot_m)
 
 
