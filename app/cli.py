@@ -11,8 +11,9 @@ import json
 import os
 import sys
 import traceback
+from collections.abc import Sequence
 from pathlib import Path
-from typing import Any, Sequence
+from typing import Any
 
 __all__ = ["main"]
 
@@ -85,7 +86,7 @@ def main(argv: Sequence[str] | None = None) -> int:
             args = tools.parse_args(args_list)
             return _COMMAND_RUNNERS[args.command](args)
         args = window.parse_args(args_list)
-        from .launch import run_window
+        from app.launch import run_window
         return run_window(args.file, args.screenshot)
     except DesignError as exc:
         print(f"penduline: {exc.field}: {exc.reason}", file=sys.stderr)
@@ -110,10 +111,9 @@ def main(argv: Sequence[str] | None = None) -> int:
 
 
 def _report(args: argparse.Namespace) -> int:
+    from app.readout.readout_format import rows
     from core import analyse, load_design
     from core.tuning import budget_ranges
-
-    from .readout_format import rows
 
     design = load_design(args.file)
     ranges = budget_ranges(args.budget_temperature, args.budget_pressure, args.budget_arc)
@@ -166,13 +166,13 @@ def _sweep(args: argparse.Namespace) -> int:
 
     table = sweep_field(load_design(args.file), args.vary, args.start, args.stop, args.points)
     print(f"{table.field},period_s,rate_s_per_day")
-    for x, t, r in zip(table.values, table.period_s, table.rate_s_per_day):
+    for x, t, r in zip(table.values, table.period_s, table.rate_s_per_day, strict=True):
         print(f"{x:.9g},{'' if t != t else f'{t:.12g}'},{'' if r != r else f'{r:.6f}'}")
     return 0
 
 
 def _export(args: argparse.Namespace) -> int:
-    from .export import export_all
+    from app.report.export import export_all
 
     for path in export_all(args.file, args.out):
         print(path)

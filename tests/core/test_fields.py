@@ -62,6 +62,13 @@ def sample_a() -> dict[str, Any]:
         "target": {"period_s": 2.0},
         "rating_nut": {"pitch_m": 0.001},
         "exhibit": {"pivot_above_floor_m": 3.0, "barrier_radius_m": 1.0},
+        "rating_log": {
+            "readings": [{"at": "2027-03-01T08:00:00+01:00", "error_s": 1.25,
+                          "temperature_c": 19.5, "pressure_hpa": 1008.0, "semi_arc_deg": 1.55,
+                          "note": ""}],
+            "adjustments": [{"at": "2027-03-04T08:05:00+01:00", "what": "nut", "amount": -0.5,
+                             "note": "half a turn down"}],
+            "decay": [{"elapsed_s": 0.0, "semi_arc_deg": 1.6}]},
     }
 
 

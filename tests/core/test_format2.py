@@ -30,6 +30,8 @@ from test_fields import sample_a, sample_b
 
 ROOT = Path(__file__).resolve().parents[2]
 EXAMPLE = ROOT / "resources" / "examples" / "workshop_regulator.pendulum.json"
+# The workshop regulator as it was saved in format 1 (before it carried a rating log).
+EXAMPLE_V1 = ROOT / "tests" / "data" / "workshop_regulator_v1.pendulum.json"
 
 
 def refused(d: Any) -> DesignError:
@@ -46,7 +48,7 @@ def v2(parts: list[dict[str, Any]], **kw: Any) -> dict[str, Any]:
 
 class TestVersions:
     def test_version_1_still_reads_and_saving_writes_version_2(self) -> None:
-        d = json.loads(EXAMPLE.read_text())
+        d = json.loads(EXAMPLE_V1.read_text())
         assert d["version"] == 1
         written = design_to_dict(design_from_dict(d))
         assert written["version"] == 2 and written["purpose"] == "clock"
@@ -62,13 +64,13 @@ class TestVersions:
         ("materials", {}),
     ])
     def test_format_2_keys_in_a_version_1_file_are_refused(self, path: str, value: Any) -> None:
-        d = json.loads(EXAMPLE.read_text())
+        d = json.loads(EXAMPLE_V1.read_text())
         d[path] = value
         err = refused(d)
         assert err.field == path and "version 2" in err.reason
 
     def test_a_version_1_bob_with_a_support_is_refused(self) -> None:
-        d = json.loads(EXAMPLE.read_text())
+        d = json.loads(EXAMPLE_V1.read_text())
         d["parts"][2]["support"] = "bottom"
         assert refused(d).field == "parts[2].support"
 
