@@ -131,10 +131,12 @@ def _check_target(path: str | os.PathLike[str], target: Path, expect: FileStamp 
         raise DesignError("file", f"could not save {path}: {exc.strerror or exc}") from None
     if info is not None:
         if stat.S_ISDIR(info.st_mode):
-            raise DesignError("file", f"{path} is a folder; give a file name to save to")
+            raise DesignError("file", f"could not save {path}: it is a folder; give a file "
+                                      "name to save to")
         if not stat.S_ISREG(info.st_mode):
-            raise DesignError("file", f"{path} is not an ordinary file (a pipe, socket or "
-                                      "device); Penduline saves only to ordinary files")
+            raise DesignError("file", f"could not save {path}: it is not an ordinary file (a "
+                                      "pipe, socket or device); Penduline saves only to "
+                                      "ordinary files")
         if not info.st_mode & _WRITE_BITS or not os.access(target, os.W_OK):
             raise ReadOnlyFileError(path)
     if not force and file_changed(target, expect):
