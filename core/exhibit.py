@@ -91,12 +91,12 @@ def exhibit_figures(state: PendulumState) -> ExhibitFigures:
     return ExhibitFigures(
         energy_j=energy,
         peak_angular_velocity_rad_s=omega_max,
-        peak_speed_m_s=None if bob is None else bob.centre_m * omega_max,
+        peak_speed_m_s=None if bob is None else abs(bob.centre_m) * omega_max,  # a magnitude
         static_load_n=mass * g,
         max_pivot_load_n=load,
         pivot_load_ratio=load / (mass * g),
         release_axial_load_n=mass * g * math.cos(theta0),
-        sweep_width_m=None if bob is None else 2.0 * bob.centre_m * math.sin(theta0),
+        sweep_width_m=None if bob is None else 2.0 * abs(bob.centre_m) * math.sin(theta0),
         lowest_point_m=lowest,
         energy_lost_per_cycle_j=lost,
         drive_power_w=power,
