@@ -120,7 +120,21 @@ def _centred(design: Design, state: PendulumState, key: str, value: float, step:
         lo, hi = lowest, lowest + step
     # Against the state's own period when there is no target: a clock's change of rate.
     target = state.target_period_s or state.period_s
-    lo_t, hi_t = _period_with(design, key, lo), _period_with(design, key, hi)
+    try:
+        lo_t, hi_t = _period_with(design, key, lo), _period_with(design, key, hi)
+    except DesignError:
+        # One end would not hang (air just dense enough to float a part): a one-sided
+        # difference from the site's own value, scaled to the step.
+        ends = []
+        for end in (lo, hi):
+            try:
+                ends.append((end, _period_with(design, key, end)))
+            except DesignError:
+                ends.append((value, state.period_s))
+        (lo, lo_t), (hi, hi_t) = ends
+        if hi == lo:
+            raise
+        return 86400.0 * (target / hi_t - target / lo_t) * step / (hi - lo)
     return 86400.0 * (target / hi_t - target / lo_t)
 
 

@@ -91,3 +91,16 @@ class TestBudgetRangeThatWouldFloat:
         assert [line.cause for line in result.budget.lines] == ["Temperature", "Air pressure",
                                                                "Semi-arc"]
         assert not [w for w in result.warnings if w.startswith("Rate budget")]
+
+
+class TestSensitivityAtTheEdge:
+    def test_design_that_floats_half_a_hectopascal_higher_is_analysed(self) -> None:
+        # 0.01 % heavier than its air: +0.5 hPa (the centred pressure step's upper end) adds
+        # 0.05 % to the air's density (ideal gas, ∝ p) and would float it. The design hangs at
+        # its site, so it is analysed; the pressure slope comes from the side that hangs, and
+        # its sign is physical: denser air buoys the globe more and slows it (the clock loses).
+        m = 1.0001 * air_mass()
+        result = analyse(balloon(m))
+        slope = result.pressure_coefficient_s_per_day_per_hpa
+        assert math.isfinite(slope) and slope < 0.0
+        assert [line.cause for line in result.budget.lines] == ["Semi-arc"]
