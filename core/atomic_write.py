@@ -190,7 +190,10 @@ def _open_temp(target: Path, existing: os.stat_result | None) -> tuple[int, Path
                     os.fchown(fd, existing.st_uid, existing.st_gid)
             except OSError:
                 pass  # not permitted: the file becomes ours, as any editor's save does
-            os.fchmod(fd, stat.S_IMODE(existing.st_mode))
+            if hasattr(os, "fchmod"):
+                os.fchmod(fd, stat.S_IMODE(existing.st_mode))
+            else:  # pragma: no cover - Windows before Python 3.13
+                os.chmod(tmp, stat.S_IMODE(existing.st_mode))
         return fd, tmp
     raise OSError("no free temporary name")
 
