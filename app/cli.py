@@ -1,6 +1,7 @@
 """The ``penduline`` command: the window, and ``report``, ``solve``, ``sweep``, ``export``.
 
-Exit codes: 0 success, 2 bad input (one line on stderr naming the field), 1 unexpected failure.
+Exit codes: 0 success, 2 bad input (one line on stderr naming the field), 1 a program failure
+(one line asking for a report; ``--debug`` anywhere on the line adds the traceback).
 """
 
 from __future__ import annotations
@@ -9,6 +10,7 @@ import argparse
 import json
 import os
 import sys
+import traceback
 from pathlib import Path
 from typing import Any, Sequence
 
@@ -32,6 +34,8 @@ def _parsers() -> tuple[_Parser, _Parser]:
     window.add_argument("file", nargs="?", help="design file to open (default: an example)")
     window.add_argument("--screenshot", metavar="OUT.png",
                         help="draw the window offscreen, save it as PNG and exit")
+    window.add_argument("--debug", action="store_true",
+                        help="on a program failure, print the traceback (any command)")
     tools = _Parser(prog="penduline")
     sub = tools.add_subparsers(dest="command", required=True)
     rep = sub.add_parser("report", help="print the readout")
@@ -71,6 +75,8 @@ def _parsers() -> tuple[_Parser, _Parser]:
 def main(argv: Sequence[str] | None = None) -> int:
     """Run the command line; returns the exit code."""
     args_list = list(sys.argv[1:] if argv is None else argv)
+    debug = "--debug" in args_list
+    args_list = [a for a in args_list if a != "--debug"]
     from core import DesignError
 
     try:
@@ -95,8 +101,11 @@ def main(argv: Sequence[str] | None = None) -> int:
         return 0
     except KeyboardInterrupt:
         return 1
-    except Exception as exc:  # the last line of defence: one line, no traceback
-        print(f"penduline: unexpected failure: {type(exc).__name__}: {exc}", file=sys.stderr)
+    except Exception as exc:  # a program bug: one line (the traceback only with --debug)
+        if debug:
+            traceback.print_exc(file=sys.stderr)
+        print(f"penduline: internal error: {type(exc).__name__}: {exc} — please report it; "
+              "run with --debug for the traceback", file=sys.stderr)
         return 1
 
 

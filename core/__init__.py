@@ -15,8 +15,15 @@ forms, editing by field path), :mod:`core.materials`, :mod:`core.gravity`.
 from .analysis import REPORT_KEYS, Result, analyse
 from .design import Design
 from .errors import DesignError
-from .fileformat import (design_from_dict, design_to_dict, dumps_design, load_design,
-                         loads_design, save_design, with_value)
+from .fileformat import (
+    design_from_dict,
+    design_to_dict,
+    dumps_design,
+    load_design,
+    loads_design,
+    save_design,
+    with_value,
+)
 
 __all__ = ["Design", "DesignError", "Result", "REPORT_KEYS", "analyse", "load_design",
            "save_design", "loads_design", "dumps_design", "design_from_dict", "design_to_dict",

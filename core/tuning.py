@@ -12,6 +12,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
+from .constants import SECONDS_PER_DAY
 from .design import Bob, ClampMount, Design
 from .errors import DesignError
 from .mass_properties import Body
@@ -80,11 +81,6 @@ def null_height_m(state: PendulumState) -> float:
     return -2.0 * state.inertia_kg_m2 * state.g_m_s2 * state.period_slope_torque / state.period_s
 
 
-def _rate(state: PendulumState) -> float:
-    """The rate (against the target, or against the state's own period when none)."""
-    return state.rate_s_per_day if state.rate_s_per_day is not None else 0.0
-
-
 def _nut_bodies(design: Design, state: PendulumState) -> list[Body]:
     """The bodies a rating nut under the main bob carries: a sleeve and its bob, or the bob."""
     main = state.main_bob()
@@ -134,8 +130,8 @@ def _centred(design: Design, state: PendulumState, key: str, value: float, step:
         (lo, lo_t), (hi, hi_t) = ends
         if hi == lo:
             raise
-        return 86400.0 * (target / hi_t - target / lo_t) * step / (hi - lo)
-    return 86400.0 * (target / hi_t - target / lo_t)
+        return SECONDS_PER_DAY * (target / hi_t - target / lo_t) * step / (hi - lo)
+    return SECONDS_PER_DAY * (target / hi_t - target / lo_t)
 
 
 def sensitivities(design: Design, state: PendulumState, trim_height_m: float | None = None
@@ -275,7 +271,7 @@ def rate_budget(design: Design, state: PendulumState,
                     raise DesignError(f"budget.{name}", where + "; narrow the range") from None
                 notes.append(f"Rate budget: {cause.lower()} left out — {where}.")
                 return None
-            rates.append(86400.0 * (target / period - 1.0))
+            rates.append(SECONDS_PER_DAY * (target / period - 1.0))
         return BudgetLine(cause, unit, low, high, rates[0], rates[1])
 
     t, p = site.temperature_c, site.pressure_hpa

@@ -199,7 +199,7 @@ class TestOpeningBrokenFiles:
         assert len(boxes) == 1
         assert boxes[0].windowTitle() == "Cannot open design"
         assert boxes[0].text() == (f"v9.pendulum.json: version: version 9 is newer than this "
-                                   "Penduline reads (up to 1); update Penduline")
+                                   "Penduline reads (up to 2); update Penduline")
         assert edited.last_message == boxes[0].text()
         boxes[0].close()
 

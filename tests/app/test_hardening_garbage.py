@@ -338,6 +338,7 @@ def campaign(window: MainWindow, qtbot, tmp_path: Path,  # type: ignore[no-untyp
     return run
 
 
+@pytest.mark.slow
 def test_garbage_campaign(campaign: Campaign, record_property: Callable[[str, Any], None]
                           ) -> None:
     c, w = campaign, campaign.w
