@@ -32,10 +32,10 @@ import hashlib
 import os
 import secrets
 import stat
+from collections.abc import Iterator
 from contextlib import contextmanager
 from dataclasses import dataclass
 from pathlib import Path
-from typing import Iterator
 
 from .errors import DesignError
 

@@ -13,7 +13,6 @@ import copy
 import json
 import os
 import stat
-import tempfile
 from pathlib import Path
 from typing import Any
 

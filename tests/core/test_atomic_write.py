@@ -28,9 +28,9 @@ def _mode(path: Path) -> int:
 def test_new_file_written_and_stamped(tmp_path: Path) -> None:
     target = tmp_path / "a.json"
     stamp = aw.write_text_atomic(target, "één\n")
-    assert target.read_bytes() == "één\n".encode("utf-8")
+    assert target.read_bytes() == "één\n".encode()
     assert stamp == aw.file_stamp(target)
-    assert stamp.size == len("één\n".encode("utf-8"))
+    assert stamp.size == len("één\n".encode())
     assert _leftovers(tmp_path, {"a.json"}) == []
 
 

@@ -11,20 +11,20 @@ from __future__ import annotations
 import json
 import math
 from collections import Counter
+from collections.abc import Iterator
 from dataclasses import fields, is_dataclass
-from typing import Any, Iterator
+from typing import Any
 
 import numpy as np
 import pytest
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
+from test_fuzz import designs
 
 from core import DesignError, analyse, design_from_dict, load_design
 from core.analysis import finite_or_none
 from core.design import Design
 from core.tuning import budget_ranges
-
-from test_fuzz import designs
 
 MAX_EXAMPLES = 600
 
