@@ -13,6 +13,7 @@ from typing import Literal
 
 from .constants import BEATS_PER_PERIOD, SECONDS_PER_HOUR
 from .materials import MATERIALS, Material
+from .rating_log import RatingLog
 
 __all__ = [
     "Site", "Suspension", "Rod", "Sleeve", "ClampMount", "SleeveMount", "Bob", "Weight",
@@ -233,6 +234,7 @@ class Design:
     purpose: Literal["clock", "exhibit"] = "clock"
     exhibit: ExhibitSite | None = None
     materials: tuple[Material, ...] = ()
+    rating_log: RatingLog | None = None
 
     def material(self, key: str) -> Material:
         """The material called ``key``: one of the user's, else a built-in one (``KeyError``

@@ -30,6 +30,7 @@ from .design import (
 from .errors import DesignError
 from .fields import FieldPath, field_spec, range_text
 from .materials import MATERIALS, Material
+from .rating_log import rating_log_from_dict, rating_log_to_dict
 
 __all__ = ["FORMAT", "VERSION", "READABLE_VERSIONS", "check_number", "design_from_dict",
            "Reader", "SECTIONS", "Section", "kind_of", "shown"]
@@ -39,7 +40,7 @@ VERSION = 2
 READABLE_VERSIONS = (1, 2)
 MAX_TEXT = 200
 # Keys that only a version 2 file may hold (DESIGN §8).
-V2_KEYS = frozenset({"purpose", "exhibit", "materials", "hangs_from", "support",
+V2_KEYS = frozenset({"purpose", "exhibit", "rating_log", "materials", "hangs_from", "support",
                      "hole_diameter_m", "blades"})
 
 
@@ -315,6 +316,11 @@ def _write_exhibit(design: Design) -> Any:
             "barrier_radius_m": ex.barrier_radius_m}
 
 
+def _write_rating_log(design: Design) -> Any:
+    assert design.rating_log is not None
+    return rating_log_to_dict(design.rating_log)
+
+
 @dataclass(frozen=True)
 class Section:
     """An optional top-level section of the file (format 2 and later).
@@ -333,6 +339,8 @@ class Section:
 SECTIONS: tuple[Section, ...] = (
     Section("exhibit", "exhibit", _parse_exhibit, _write_exhibit,
             lambda d: d.exhibit is not None),
+    Section("rating_log", "rating_log", lambda r: rating_log_from_dict(r.obj, r.path),
+            _write_rating_log, lambda d: d.rating_log is not None),
 )
 
 
