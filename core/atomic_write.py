@@ -152,10 +152,13 @@ def _name_max(folder: Path) -> int:
     return value if isinstance(value, int) and value > 16 else _DEFAULT_NAME_MAX
 
 
-def _temp_name(target: Path) -> Path:
-    """A fresh hidden name beside ``target``, within the folder's name limit (bytes)."""
-    suffix = f".{secrets.token_hex(4)}.tmp"
-    budget = _name_max(target.parent) - 1 - len(suffix)
+def _temp_name(target: Path, keep_suffix: bool = False) -> Path:
+    """A fresh hidden name beside ``target``, within the folder's name limit (bytes); with
+    ``keep_suffix`` it ends in the target's suffix (``.png``), for libraries that choose the
+    format by the name."""
+    ext = target.suffix if keep_suffix and len(os.fsencode(target.suffix)) <= 16 else ""
+    suffix = f".{secrets.token_hex(4)}.tmp{ext}"
+    budget = _name_max(target.parent) - 1 - len(os.fsencode(suffix))
     stem = os.fsencode(target.name)[:max(budget, 1)]
     name = "." + os.fsdecode(stem.decode("utf-8", "ignore").encode("utf-8") or b"p") + suffix
     return target.with_name(name)
@@ -174,11 +177,12 @@ def _fsync_folder(folder: Path) -> None:
         os.close(fd)
 
 
-def _open_temp(target: Path, existing: os.stat_result | None) -> tuple[int, Path]:
+def _open_temp(target: Path, existing: os.stat_result | None, keep_suffix: bool = False
+               ) -> tuple[int, Path]:
     """Create the temporary file: mode 0666 & ~umask for a new file (the kernel applies the
     umask), the old file's mode (and owner where permitted) for a replacement."""
     for _ in range(20):
-        tmp = _temp_name(target)
+        tmp = _temp_name(target, keep_suffix)
         try:
             fd = os.open(tmp, os.O_WRONLY | os.O_CREAT | os.O_EXCL, 0o600 if existing else 0o666)
         except FileExistsError:
@@ -265,15 +269,16 @@ def write_text_atomic(path: str | os.PathLike[str], text: str, *,
 def atomic_path(path: str | os.PathLike[str], *, expect: FileStamp | None = None,
                 force: bool = False) -> Iterator[Path]:
     """For writers that need a file name (PDF, image libraries): yield a temporary path beside
-    the target, already created empty with the right mode; after the block it is synced and
-    renamed over ``path`` with the same rules as :func:`write_bytes_atomic`. An exception in
+    the target, ending in the target's suffix, already created empty with the right mode;
+    after the block it is synced and renamed over ``path`` with the same rules as
+    :func:`write_bytes_atomic`. An exception in
     the block, or nothing written, leaves the target untouched and removes the temporary file.
     """
     target = resolve_target(path)
     existing = _check_target(path, target, expect, force)
     tmp: Path | None = None
     try:
-        fd, tmp = _open_temp(target, existing)
+        fd, tmp = _open_temp(target, existing, keep_suffix=True)
         os.close(fd)
         yield tmp
         if tmp.stat().st_size == 0:

@@ -113,6 +113,10 @@ def test_long_name_saves(tmp_path: Path, length: int) -> None:
     aw.write_text_atomic(tmp_path / name, "first")
     aw.write_text_atomic(tmp_path / name, "second")
     assert (tmp_path / name).read_text() == "second"
+    with aw.atomic_path(tmp_path / name) as tmp:  # the temporary keeps ".json" and still fits
+        assert tmp.suffix == ".json"
+        tmp.write_text("third")
+    assert (tmp_path / name).read_text() == "third"
     assert _leftovers(tmp_path, {name}) == []
 
 
@@ -216,7 +220,7 @@ def test_bytes_and_atomic_path(tmp_path: Path) -> None:
     assert png.read_bytes() == b"\x89PNG\r\n"
     os.chmod(png, 0o664)
     with aw.atomic_path(png) as tmp:
-        assert tmp.parent == tmp_path and tmp.exists()
+        assert tmp.parent == tmp_path and tmp.exists() and tmp.suffix == ".png"
         tmp.write_bytes(b"second")
     assert png.read_bytes() == b"second" and _mode(png) == 0o664
     with pytest.raises(RuntimeError):
