@@ -22,8 +22,10 @@ from core import (
     loads_design,
     save_design,
 )
+from core.blades import blade_stiffness_n_m_per_rad
 from core.mass_properties import layout
 from core.materials import MATERIALS
+from core.model import pendulum_state
 
 from _core_builders import bob, clamp, design, on_sleeve, rod, sleeve
 from test_fields import sample_a, sample_b
@@ -214,11 +216,20 @@ class TestBlades:
         return d
 
     def test_stiffness_from_the_blades(self) -> None:
-        sus = design_from_dict(self.spring(BLADES)).suspension
-        # Euler–Bernoulli pure bending: k = n E w t³ / (12 ℓ) per blade, blades side by side.
-        expected = 2 * 200e9 * 0.006 * 1e-4**3 / 12 / 0.006
-        assert sus.stiffness_n_m_per_rad == pytest.approx(expected, rel=1e-12)
-        assert sus.blades is not None and sus.blades.count == 2
+        d = design_from_dict(self.spring(BLADES))
+        assert d.suspension.blades is not None and d.suspension.blades.count == 2
+        state = pendulum_state(d)
+        weight = state.mass.mass_kg * state.g_m_s2
+        # The model's stiffness is the blades' bending stiffness under the pendulum's weight
+        # (core.blades, itself checked against solve_bvp in test_blades.py) ...
+        assert state.stiffness_n_m_per_rad == pytest.approx(blade_stiffness_n_m_per_rad(
+            2, 200e9, 0.006, 1e-4, 0.006, weight), rel=1e-12)
+        # ... and with a short blade under a light pull it is close to pure bending,
+        # n E w t³ / (12 ℓ) (Euler–Bernoulli beam theory [pub, memory]): the tension's
+        # factor x / sinh x, x = ℓ / λ, λ² = E I / (T / n), stays near 1.
+        pure = 2 * 200e9 * 0.006 * 1e-4**3 / 12 / 0.006
+        x = 0.006 / math.sqrt(200e9 * 0.006 * 1e-4**3 / 12 / (weight / 2))
+        assert state.stiffness_n_m_per_rad == pytest.approx(pure * x / math.sinh(x), rel=1e-12)
         written = design_to_dict(design_from_dict(self.spring(BLADES)))["suspension"]
         assert written["stiffness_n_m_per_rad"] is None and written["blades"] == BLADES
 
