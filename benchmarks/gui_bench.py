@@ -208,7 +208,7 @@ def bench_animation(arrangement: str) -> None:
     def drag() -> tuple[float, float]:
         """(frames/s, edits/s) over ANIMATION_S of stepping the rod length, processing the
         events after each step."""
-        frames0, computes0 = counter.frames, window.compute_count
+        frames0 = counter.frames
         steps = 0
         started = time.perf_counter()
         while time.perf_counter() - started < ANIMATION_S:

@@ -37,8 +37,8 @@ from app.document.document import Document, read_design_file
 from core import Design, DesignError, dumps_design
 from core.fileformat import write_text_atomic
 
-__all__ = ["AUTOSAVE_DELAY_S", "AUTOSAVE_INTERVAL_S", "DATA_DIR_ENV", "MAX_DELAY_S", "RECOVERY_FORMAT", "Autosaver",
-           "RecoveryEntry", "data_folder", "find_orphans", "read_entry", "recovery_folder",
+__all__ = ["AUTOSAVE_DELAY_S", "AUTOSAVE_INTERVAL_S", "DATA_DIR_ENV", "MAX_DELAY_S",
+           "RECOVERY_FORMAT", "Autosaver", "RecoveryEntry", "data_folder", "find_orphans", "read_entry", "recovery_folder",
            "remove_entry", "set_aside"]
 
 AUTOSAVE_INTERVAL_S = 30.0
