@@ -38,8 +38,8 @@ from core import Design, DesignError, dumps_design
 from core.fileformat import write_text_atomic
 
 __all__ = ["AUTOSAVE_DELAY_S", "AUTOSAVE_INTERVAL_S", "DATA_DIR_ENV", "MAX_DELAY_S",
-           "RECOVERY_FORMAT", "Autosaver", "RecoveryEntry", "data_folder", "find_orphans", "read_entry", "recovery_folder",
-           "remove_entry", "set_aside"]
+           "RECOVERY_FORMAT", "Autosaver", "RecoveryEntry", "data_folder", "find_orphans",
+           "read_entry", "recovery_folder", "remove_entry", "set_aside"]
 
 AUTOSAVE_INTERVAL_S = 30.0
 AUTOSAVE_DELAY_S = 3.0   # after the last edit: a crash loses at most the last few seconds
