@@ -187,7 +187,8 @@ class RatingTable(QTableView):
             log, made["row"] = edits.with_reading_now(self.table_model.log)
             return log
 
-        if self._offer(make, "Add a reading"):
+        before = self.table_model.rowCount()
+        if self._offer(make, "Add a reading") and self.table_model.rowCount() > before:
             index = self.table_model.index(made["row"], 2)
             self.setCurrentIndex(index)
             self.scrollTo(index)

@@ -196,8 +196,9 @@ class RatingView(QWidget):
 
     def _on_design_changed(self, design: Design) -> None:
         self._design = design
-        if self.isVisible():
+        if (design.rating_log or RatingLog()) != self.table.log:  # undo, open, an edit here
             self.table.set_log(design.rating_log, self.system)
+        if self.isVisible():
             self._timer.start()
 
     def showEvent(self, event: Any) -> None:  # Qt override
