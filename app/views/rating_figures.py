@@ -87,7 +87,7 @@ def figures_html(report: dict[str, Any] | None, problem: str = "",
                    f"&nbsp;• {html.escape(corr['rating_nut_direction'])}<br>"
                    f"&nbsp;• trim {trim}<br>&nbsp;• {bob}</p>")
     q = report.get("quality_factor")
-    out.append(f"<p><b>Q from decay</b>: "
+    out.append("<p><b>Q from decay</b>: "
                + (f"{_pm(q, report.get('quality_factor_sigma'), '.0f' if q >= 100 else '.3g')}"
                   if q is not None
                   else html.escape(report.get("quality_note") or "no decay readings"))

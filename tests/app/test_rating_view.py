@@ -4,7 +4,7 @@ and the fit made only while the view is on screen."""
 
 from __future__ import annotations
 
-from datetime import datetime, timedelta, timezone
+from datetime import UTC, datetime, timedelta
 from pathlib import Path
 
 import pytest
@@ -88,7 +88,7 @@ class TestEdits:
         assert len(after.readings) == len(before.readings) + 1
         new = next(r for r in after.readings if r not in before.readings)
         assert new.at.utcoffset() is not None
-        assert abs(new.at - datetime.now(timezone.utc)) < timedelta(minutes=1)
+        assert abs(new.at - datetime.now(UTC)) < timedelta(minutes=1)
         assert view.table.table_model.rowCount() == len(table_rows(after))
         window.document.undo_stack.undo()
         QApplication.processEvents()
