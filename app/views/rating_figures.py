@@ -67,11 +67,10 @@ def figures_html(report: dict[str, Any] | None, problem: str = "",
                 out.append(_row(f"{label}", clock, mod))
         measured = report.get("measured_rate_at_mean_conditions_s_per_day")
         if model.get("rate_s_per_day") is not None:
-            out.append(_row("<b>Rate</b>, s/day", "<b>clock</b>", "<b>model</b>"))
-            out.append(_row(f"at {temp.convert(model['temperature_c']):.3g} {temp.text}, "
-                            f"{pres.convert(model['pressure_hpa']):.5g} {pres.text}, "
-                            f"{model['semi_arc_deg']:.3g}° (the log's mean)",
-                            "—" if measured is None else f"{measured:+.3f}",
+            out.append(_row(f"<b>At the log's mean</b> {temp.convert(model['temperature_c']):.3g} "
+                            f"{temp.text}, {pres.convert(model['pressure_hpa']):.5g} "
+                            f"{pres.text}, {model['semi_arc_deg']:.3g}°", span=3))
+            out.append(_row("rate, s/day", "—" if measured is None else f"{measured:+.3f}",
                             f"{model['rate_s_per_day']:+.3f}"))
         out.append(_row("Residual RMS", f"{report['residual_rms_s']:.3g} s", span=2))
     out.append("</table>")

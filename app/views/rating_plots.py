@@ -179,7 +179,7 @@ class AllanPlot(pg.PlotWidget):
 
     def __init__(self, parent: QWidget | None = None) -> None:
         super().__init__(parent=parent, background=theme.PLOT_BACKGROUND)
-        style_plot(self, "Allan deviation of the rate", "σ_y(τ)", "τ (days)")
+        style_plot(self, "Allan deviation of the rate", "σ<sub>y</sub>(τ)", "τ (days)")
         self.setLogMode(x=True, y=True)
         self.curve = pg.PlotDataItem(pen=pen(READING, 1.5), symbol="o", symbolSize=6,
                                      symbolBrush=READING, symbolPen=None)

@@ -23,6 +23,7 @@ from core.rating_log import RatingLog
 __all__ = ["RatingTable", "RatingTableModel"]
 
 ADJUSTMENT_BACKGROUND = "#f1ece0"
+_WIDTHS = (172, 64, 64, 64, 80, 56, 110)  # px, the usual content of each column but the note
 Index = QModelIndex | QPersistentModelIndex
 
 
@@ -58,7 +59,7 @@ class RatingTableModel(QAbstractTableModel):
         column = edits.COLUMNS[section]
         if role == Qt.ItemDataRole.DisplayRole:
             unit = readout_unit(column.unit, self.system).text if column.unit else ""
-            return f"{column.heading} {unit}".strip()
+            return f"{column.heading} ({unit})" if unit else column.heading
         if role == Qt.ItemDataRole.ToolTipRole:
             return _TIPS.get(column.key)
         return None
@@ -140,8 +141,7 @@ class RatingTable(QTableView):
         header = self.horizontalHeader()
         header.setStretchLastSection(True)
         header.setSectionResizeMode(QHeaderView.ResizeMode.Interactive)
-        for column, width in enumerate((172, 64, 64, 72, 104, 60, 110)):
-            self.setColumnWidth(column, width)
+        self._fit_columns()
         # on the table itself, not its cell editor (where they keep their text meaning)
         for keys, slot in ((("Insert",), self.add_reading_now),
                            ((QKeySequence.StandardKey.Paste,), lambda: self.paste()),
@@ -151,6 +151,13 @@ class RatingTable(QTableView):
                 shortcut.setContext(Qt.ShortcutContext.WidgetShortcut)
                 shortcut.activated.connect(slot)
 
+    def _fit_columns(self) -> None:
+        """Each column as wide as its usual content or its heading, whichever is wider."""
+        metrics = self.horizontalHeader().fontMetrics()
+        for column, width in enumerate(_WIDTHS):
+            heading = str(self.table_model.headerData(column, Qt.Orientation.Horizontal))
+            self.setColumnWidth(column, max(width, metrics.horizontalAdvance(heading) + 36))
+
     @property
     def log(self) -> RatingLog:
         return self.table_model.log
@@ -158,7 +165,10 @@ class RatingTable(QTableView):
     def set_log(self, log: RatingLog | None, system: UnitSystem | None = None) -> None:
         """Show ``log`` (the current row stays where it can)."""
         current = self.currentIndex()
+        changed_units = system is not None and system != self.table_model.system
         self.table_model.set_log(log, system)
+        if changed_units:
+            self._fit_columns()
         if current.isValid() and current.row() < self.table_model.rowCount():
             self.setCurrentIndex(self.table_model.index(current.row(), current.column()))
 

@@ -211,7 +211,7 @@ class TestFilesAndUnits:
         model = view.table.table_model
         header = model.headerData(COLUMN["temperature_c"], __import__(
             "PySide6.QtCore", fromlist=["Qt"]).Qt.Orientation.Horizontal)
-        assert header == "Temp. °F"
+        assert header == "Temp. (°F)"
         first = window.document.design.rating_log.readings[0]
         shown = float(model.data(model.index(0, COLUMN["temperature_c"])))
         assert shown == pytest.approx(first.temperature_c * 1.8 + 32.0, abs=1e-3)  # unit rule
