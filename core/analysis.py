@@ -18,7 +18,7 @@ from .design import Bob, ClampMount, Design, Rod, beats_per_hour
 from .errors import DesignError, guarded
 from .exhibit import ExhibitFigures, exhibit_figures
 from .fileformat import design_from_dict, design_to_dict
-from .mass_properties import Body
+from .mass_properties import Body, rods_in_series
 from .model import PendulumState, pendulum_state
 from .motion import Motion, motion
 from .period import period_exact
@@ -167,6 +167,10 @@ def _warnings(design: Design, state: PendulumState) -> tuple[str, ...]:
             if p.mount.centre_m > rod.top_m + rod.length_m:
                 out.append(f"Bob '{p.name}' is centred below the end of rod '{rod.name}': it "
                            "hangs from the rod's end.")
+    for lower, upper in rods_in_series(design):
+        out.append(f"Rod '{lower}' starts on rod '{upper}' at a fixed top, which does not "
+                   f"follow rod '{upper}' as it grows with temperature: the temperature "
+                   f"figures leave that growth out. Hang it from the rod's end (hangs_from).")
     if design.suspension.kind == "spring" and amp > 10.0:
         out.append(f"A suspension spring at {amp:g}° semi-arc bends far beyond its linear range; "
                    "the constant-stiffness model is optimistic there.")
