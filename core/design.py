@@ -13,6 +13,7 @@ from typing import Literal
 
 from .constants import BEATS_PER_PERIOD, SECONDS_PER_HOUR
 from .materials import MATERIALS, Material
+from .rating_log import RatingLog
 
 __all__ = [
     "Site", "Suspension", "Rod", "Sleeve", "ClampMount", "SleeveMount", "Bob", "Weight",
@@ -65,8 +66,9 @@ class Blades:
 class Suspension:
     """``knife_edge`` (ideal hinge) or ``spring`` (restoring torque stiffness·θ, N·m/rad).
 
-    A spring may be given by its ``blades`` (format 2); its stiffness is then derived from them
-    when the design is read (see :mod:`core.validate`) and the file keeps the stiffness null.
+    A spring may be given by its ``blades`` (format 2); ``stiffness_n_m_per_rad`` is then 0 here,
+    the file keeps it null, and the model derives the stiffness from the blades under the
+    pendulum's weight (:func:`core.model.suspension_stiffness`).
     """
 
     kind: Literal["knife_edge", "spring"] = "knife_edge"
@@ -233,6 +235,7 @@ class Design:
     purpose: Literal["clock", "exhibit"] = "clock"
     exhibit: ExhibitSite | None = None
     materials: tuple[Material, ...] = ()
+    rating_log: RatingLog | None = None
 
     def material(self, key: str) -> Material:
         """The material called ``key``: one of the user's, else a built-in one (``KeyError``

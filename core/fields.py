@@ -27,7 +27,7 @@ __all__ = ["FieldSpec", "FieldPath", "FIELDS", "UNIT_KINDS", "CHOICES", "field_s
 
 UNIT_KINDS = ("length", "small_length", "mass", "angle", "temperature", "pressure", "stiffness",
               "gravity", "period", "frequency", "quality", "density", "expansion", "modulus",
-              "count", "text", "choice", "section")
+              "count", "seconds", "time", "text", "choice", "section")
 PART_KINDS = ("rod", "sleeve", "bob", "weight")
 
 _SHORTEST_PERIOD_S = 0.05  # a target shorter than this is no pendulum clock (common practice)
@@ -305,6 +305,35 @@ FIELDS: tuple[FieldSpec, ...] = (
        help="Stiffness of the material in tension, for spring blades and stretch."),
     _f("materials.*.source", "Source", "text",
        help="Where the values come from (a handbook, a data sheet, your own measurement)."),
+    _f("rating_log", "Rating log", "section",
+       help="The clock's observed errors against a time reference, its adjustments and decay."),
+    _f("rating_log.readings", "Readings", "section", help="Comparisons with a time reference."),
+    _f("rating_log.readings[].at", "Time", "time",
+       help="When the clock was compared, ISO 8601 with its offset (2027-03-01T08:00+01:00)."),
+    _f("rating_log.readings[].error_s", "Clock error", "seconds", -1.0e7, 1.0e7,
+       help="Clock reading minus true time; positive when the clock is ahead."),
+    _f("rating_log.readings[].temperature_c", "Room temperature", "temperature", -80.0, 100.0,
+       help="The temperature at the pendulum when the reading was taken (optional)."),
+    _f("rating_log.readings[].pressure_hpa", "Air pressure", "pressure", 0.0, 1200.0,
+       help="The barometer reading when the reading was taken (optional)."),
+    _f("rating_log.readings[].semi_arc_deg", "Semi-arc", "angle", 0.0, 179.9, low_open=True,
+       help="The semi-arc seen on the degree plate when the reading was taken (optional)."),
+    _f("rating_log.readings[].note", "Note", "text", default="", help="Anything worth noting."),
+    _f("rating_log.adjustments", "Adjustments", "section",
+       help="What was changed; each one starts a new segment of the log."),
+    _f("rating_log.adjustments[].at", "Time", "time", help="When the change was made."),
+    _f("rating_log.adjustments[].what", "Change", "choice",
+       help="Rating nut (turns, positive up), trim (grams added), bob (mm lowered), set "
+            "(the clock's hands were set) or other."),
+    _f("rating_log.adjustments[].amount", "Amount", "count", -1.0e6, 1.0e6,
+       help="Turns of the nut, grams of trim, mm of bob or seconds set, by the change."),
+    _f("rating_log.adjustments[].note", "Note", "text", default="", help="Anything worth noting."),
+    _f("rating_log.decay", "Decay readings", "section",
+       help="Semi-arcs read with the drive removed, for the quality factor."),
+    _f("rating_log.decay[].elapsed_s", "Elapsed time", "seconds", 0.0, 1.0e9,
+       help="Time since the drive was removed."),
+    _f("rating_log.decay[].semi_arc_deg", "Semi-arc", "angle", 0.0, 179.9, low_open=True,
+       help="The semi-arc at that time."),
 )
 
 _BY_PATTERN: dict[str, FieldSpec] = {s.pattern: s for s in FIELDS}
@@ -320,7 +349,9 @@ CHOICES: dict[str, dict[str, str]] = {
     "target": {"period": "Period", "beats_per_hour": "Beats per hour", "none": "No target"},
     "material": {"steel": "Steel", "brass": "Brass", "invar": "Invar",
                  "aluminium": "Aluminium", "lead": "Lead", "cast_iron": "Cast iron",
-                 "wood": "Wood", "fused_silica": "Fused silica"},
+                 "wood": "Wood", "fused_silica": "Fused silica", "zinc": "Zinc",
+                 "copper": "Copper", "tin": "Tin", "stainless_steel": "Stainless steel",
+                 "music_wire": "Music wire", "spring_steel": "Spring steel"},
 }
 
 

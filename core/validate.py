@@ -30,6 +30,7 @@ from .design import (
 from .errors import DesignError
 from .fields import FieldPath, field_spec, range_text
 from .materials import MATERIALS, Material
+from .rating_log import rating_log_from_dict, rating_log_to_dict
 
 __all__ = ["FORMAT", "VERSION", "READABLE_VERSIONS", "check_number", "design_from_dict",
            "Reader", "SECTIONS", "Section", "kind_of", "shown"]
@@ -39,7 +40,7 @@ VERSION = 2
 READABLE_VERSIONS = (1, 2)
 MAX_TEXT = 200
 # Keys that only a version 2 file may hold (DESIGN §8).
-V2_KEYS = frozenset({"purpose", "exhibit", "materials", "hangs_from", "support",
+V2_KEYS = frozenset({"purpose", "exhibit", "rating_log", "materials", "hangs_from", "support",
                      "hole_diameter_m", "blades"})
 
 
@@ -204,16 +205,6 @@ def _parse_site(r: Reader, reference_c: float) -> Site:
     return site
 
 
-def blade_stiffness(blades: Blades, youngs_modulus_pa: float) -> float:
-    """Bending stiffness of the blades, N·m/rad: count · E · w t³ / (12 ℓ).
-
-    Each blade bent into an arc over its free length ℓ needs torque E I / ℓ per radian, with
-    I = w t³ / 12 (Euler–Bernoulli beam theory, pure bending); blades side by side add.
-    """
-    second_moment = blades.width_m * blades.thickness_m**3 / 12.0
-    return blades.count * youngs_modulus_pa * second_moment / blades.free_length_m
-
-
 def _parse_suspension(r: Reader | None, materials: dict[str, Material]) -> Suspension:
     if r is None:
         return Suspension()
@@ -234,7 +225,7 @@ def _parse_suspension(r: Reader | None, materials: dict[str, Material]) -> Suspe
         if r.has("stiffness_n_m_per_rad") and r.obj["stiffness_n_m_per_rad"] is not None:
             raise DesignError(r.at("stiffness_n_m_per_rad"), "give the stiffness or the "
                               "blades, not both (set the stiffness to null)")
-        k = blade_stiffness(blades, materials[blades.material].youngs_modulus_pa)
+        k = 0.0  # derived by the model under the pendulum's weight (core.blades)
     r.done()
     assert k is not None
     if kind == "knife_edge" and k != 0.0:
@@ -315,6 +306,11 @@ def _write_exhibit(design: Design) -> Any:
             "barrier_radius_m": ex.barrier_radius_m}
 
 
+def _write_rating_log(design: Design) -> Any:
+    assert design.rating_log is not None
+    return rating_log_to_dict(design.rating_log)
+
+
 @dataclass(frozen=True)
 class Section:
     """An optional top-level section of the file (format 2 and later).
@@ -333,6 +329,8 @@ class Section:
 SECTIONS: tuple[Section, ...] = (
     Section("exhibit", "exhibit", _parse_exhibit, _write_exhibit,
             lambda d: d.exhibit is not None),
+    Section("rating_log", "rating_log", lambda r: rating_log_from_dict(r.obj, r.path),
+            _write_rating_log, lambda d: d.rating_log is not None),
 )
 
 

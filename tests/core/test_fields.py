@@ -35,14 +35,14 @@ def sample_a() -> dict[str, Any]:
     return {
         "format": "penduline-design", "version": 2, "name": "Sample A", "purpose": "exhibit",
         "reference_temperature_c": 20.0,
-        "materials": {"zinc": {"name": "Zinc", "density_kg_m3": 7140.0,
-                               "expansion_per_k": 3.0e-5, "youngs_modulus_pa": 1.08e11,
-                               "source": "invented for a test"}},
+        "materials": {"own_zinc": {"name": "Zinc", "density_kg_m3": 7140.0,
+                                   "expansion_per_k": 3.0e-5, "youngs_modulus_pa": 1.08e11,
+                                   "source": "invented for a test"}},
         "site": {"latitude_deg": 52.0, "elevation_m": 40.0, "g_m_s2": 9.81,
                  "temperature_c": 20.0, "pressure_hpa": 1013.25},
         "suspension": {"kind": "spring", "stiffness_n_m_per_rad": 0.5},
         "parts": [
-            {"kind": "rod", "name": "rod", "material": "zinc", "top_m": 0.0, "length_m": 1.0,
+            {"kind": "rod", "name": "rod", "material": "own_zinc", "top_m": 0.0, "length_m": 1.0,
              "diameter_m": 0.008, "mass_kg": 0.4},
             {"kind": "sleeve", "name": "sleeve", "material": "steel", "on": "rod",
              "length_m": 0.05, "outer_diameter_m": 0.02, "inner_diameter_m": 0.009,
@@ -62,6 +62,13 @@ def sample_a() -> dict[str, Any]:
         "target": {"period_s": 2.0},
         "rating_nut": {"pitch_m": 0.001},
         "exhibit": {"pivot_above_floor_m": 3.0, "barrier_radius_m": 1.0},
+        "rating_log": {
+            "readings": [{"at": "2027-03-01T08:00:00+01:00", "error_s": 1.25,
+                          "temperature_c": 19.5, "pressure_hpa": 1008.0, "semi_arc_deg": 1.55,
+                          "note": ""}],
+            "adjustments": [{"at": "2027-03-04T08:05:00+01:00", "what": "nut", "amount": -0.5,
+                             "note": "half a turn down"}],
+            "decay": [{"elapsed_s": 0.0, "semi_arc_deg": 1.6}]},
     }
 
 
