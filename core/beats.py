@@ -11,7 +11,7 @@ period is 2b. The 1-σ uncertainties are the standard errors √diag(s²(XᵀX)�
 positive when the clock gains; its σ follows from σ_b. The drift is the rate of the last third
 of the recording minus that of the first third (each fitted alone). Ticks whose shape is unlike
 the clock's own (correlation with the average tick under half the median) or that stand off the
-beat (residual beyond 6 robust σ of the residuals' local median) are rejected before the final fit.
+beat (residual beyond 6 robust σ, and 30 µs, from the median of its 7 neighbours' residuals) are rejected before the final fit.
 """
 
 from __future__ import annotations
@@ -40,6 +40,7 @@ SECONDS_PER_DAY = 86400.0
 MIN_TICKS = 8
 MIN_PERIOD_S = 0.1
 MAX_PERIOD_S = 20.0
+_OFF_BEAT_FLOOR_S = 30e-6   # never call a tick off the beat for less
 _OUT_OF_BEAT_PERCENT = 2.0   # common practice, no source: audibly out of beat
 BEATS_REPORT_KEYS = ("ticks", "rejected", "missing", "duration_s", "beat_s", "beat_sigma_s",
                      "period_s", "beat_asymmetry_ms", "beat_asymmetry_sigma_ms",
@@ -177,12 +178,12 @@ def _reject_off_beat(index: IntArray, times: FloatArray) -> NDArray[np.bool_]:
         i = index.astype(np.float64)
         res = times - (fit.t0_s + i * fit.beat_s + np.where(index % 2 == 0, 0.5, -0.5)
                        * fit.asymmetry_s)
-        size = min(15, int(keep.sum()) // 2 * 2 - 1)
+        size = min(7, int(keep.sum()) // 2 * 2 - 1)
         local = res.copy()
         local[keep] -= median_filter(res[keep], size=max(1, size), mode="nearest")
         dev = np.abs(local[keep] - np.median(local[keep]))
         sigma = 1.4826 * float(np.median(dev))
-        new = np.abs(local - np.median(local[keep])) <= max(6.0 * sigma, 2e-6)
+        new = np.abs(local - np.median(local[keep])) <= max(6.0 * sigma, _OFF_BEAT_FLOOR_S)
         par = index[new] % 2
         if (np.array_equal(new, keep) or new.sum() < MIN_TICKS or par.min() == par.max()):
             break
@@ -219,7 +220,7 @@ def analyse_detection(det: TickDetection, target_period_s: float | None = None) 
     period = 2.0 * b
     if not MIN_PERIOD_S <= period <= MAX_PERIOD_S:
         raise DesignError("recording", f"the period found, {period:.4g} s, is outside "
-                                       f"{MIN_PERIOD_S}–{MAX_PERIOD_S} s: not a clock's ticking")
+                                       f"{MIN_PERIOD_S:g}–{MAX_PERIOD_S:g} s: not a clock's ticking")
     missing = int(index[-1] - index[0] + 1 - len(index))
     drift = drift_sigma = None
     ref = target if target is not None else period

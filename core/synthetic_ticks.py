@@ -142,8 +142,9 @@ def render_chunks(spec: TickSignalSpec, chunk_s: float = 10.0) -> Iterator[Float
         for c, tc in enumerate(spec.clicks_s):
             n0 = int(round(tc * fs))
             crng = np.random.default_rng([spec.seed, 4, c])
-            m = max(4, int(0.6e-3 * fs))
-            y = spec.click_level * amp * crng.standard_normal(m) * np.exp(-np.arange(m) / (m / 4))
+            m = max(8, int(1e-3 * fs))
+            y = crng.standard_normal(m) * np.exp(-np.arange(m) / (m / 4))
+            y *= spec.click_level * amp / np.max(np.abs(y))   # peak: click_level × tick's
             lo, hi = max(n0, start), min(n0 + m, stop)
             if lo < hi:
                 x[lo - start:hi - start] += y[lo - n0:hi - n0]

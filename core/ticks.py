@@ -328,7 +328,8 @@ def detect_ticks(source: SampleSource) -> TickDetection:
     cand, idx, coarse = cand[order], idx[order], coarse[order]
     times, corr, templates, q = _refine(source, coarse, idx % 2, beat)
     # loud events off the beat: not a tick, not in the tick's own sounds just after it
-    loud = np.setdiff1d(np.flatnonzero(ch >= 0.5 * np.median(ch[cand])), cand)
+    loud_level = max(0.5 * float(np.median(ch[cand])), 2.0 * _CAND_HEIGHT)
+    loud = np.setdiff1d(np.flatnonzero(ch >= loud_level), cand)
     k = np.searchsorted(ct[cand], ct[loud], side="right") - 1
     own = (k >= 0) & (ct[loud] - ct[cand][np.maximum(k, 0)] < min(0.08, 0.4 * beat))
     return TickDetection(times_s=times, index=idx, correlation=corr,
