@@ -24,6 +24,7 @@ from pathlib import Path
 
 import numpy as np
 from numpy.typing import NDArray
+from scipy.fft import irfft, rfft, rfftfreq
 from scipy.signal import fftconvolve, resample_poly
 
 __all__ = ["TickSignalSpec", "true_tick_times", "render_chunks", "render", "write_wav"]
@@ -110,6 +111,18 @@ def render_chunks(spec: TickSignalSpec, chunk_s: float = 10.0) -> Iterator[Float
     h = _room_response(spec)
     tick_len = int((8 * spec.tick_decay_s + spec.secondary_delay_s + 0.002) * fs) + len(h) + _EDGE
     amp = spec.amplitude
+    # one tick (with its secondary sound and the room) starting _EDGE samples in, made on a grid
+    # 8 times finer and brought down through resample_poly's anti-alias filter as a recorder's
+    # converter would; each tick is this delayed by its fraction of a sample (exact for a
+    # band-limited signal), so the samples do not depend on where the grid falls
+    tau = np.arange((tick_len + _EDGE) * _OVER) / (fs * _OVER) - _EDGE / fs
+    y0 = _burst(tau, spec.tick_hz, spec.tick_rise_s, spec.tick_decay_s)
+    y0 += spec.secondary_level * _burst(tau - spec.secondary_delay_s, spec.secondary_hz,
+                                        spec.tick_rise_s, spec.tick_decay_s * 1.5)
+    base = fftconvolve(resample_poly(y0, 1, _OVER)[:tick_len], h)[:tick_len]
+    n_fft = tick_len + 2 * _EDGE
+    base_spec = rfft(base, n=n_fft)
+    freqs = rfftfreq(n_fft)
     gain = 10.0 ** (spec.level_drift_db / 20.0 * (times / spec.duration_s - 0.5))
     level = np.where(index % 2 == 0, 1.0, spec.tock_level) * gain
     noise_rms = 0.0 if spec.snr_db is None else amp / 10.0 ** (spec.snr_db / 20.0)
@@ -126,16 +139,10 @@ def render_chunks(spec: TickSignalSpec, chunk_s: float = 10.0) -> Iterator[Float
         k0 = np.searchsorted(times, start / fs - tick_len / fs - 0.01)
         k1 = np.searchsorted(times, stop / fs + 0.01)
         for k in range(k0, k1):
-            n0 = int(np.floor(times[k] * fs)) - 2 - _EDGE
-            # on a grid 8 times finer, then through resample_poly's anti-alias filter, as a
-            # recorder's converter would: the samples do not depend on where the grid falls
-            tau = (np.arange(n0 * _OVER, (n0 + tick_len + 2 * _EDGE) * _OVER)
-                   / (fs * _OVER)) - times[k]
-            y = _burst(tau, spec.tick_hz, spec.tick_rise_s, spec.tick_decay_s)
-            y += spec.secondary_level * _burst(tau - spec.secondary_delay_s, spec.secondary_hz,
-                                               spec.tick_rise_s, spec.tick_decay_s * 1.5)
-            y = resample_poly(y, 1, _OVER)[:tick_len]
-            y = fftconvolve(y, h)[:tick_len] * amp * level[k]
+            n0 = int(np.floor(times[k] * fs)) - _EDGE
+            frac = times[k] * fs - np.floor(times[k] * fs)
+            y = irfft(base_spec * np.exp(-2j * np.pi * freqs * frac), n=n_fft)[:tick_len]
+            y *= amp * level[k]
             lo, hi = max(n0, start), min(n0 + tick_len, stop)
             if lo < hi:
                 x[lo - start:hi - start] += y[lo - n0:hi - n0]
