@@ -17,6 +17,7 @@ ticks as asked.
 
 from __future__ import annotations
 
+import struct
 import wave
 from collections.abc import Iterator
 from dataclasses import dataclass
@@ -163,11 +164,13 @@ def render(spec: TickSignalSpec) -> FloatArray:
     return np.concatenate(list(render_chunks(spec)))
 
 
-def write_wav(spec: TickSignalSpec, path: str | Path, bits: int = 16, channels: int = 1) -> None:
+def write_wav(spec: TickSignalSpec, path: str | Path, bits: int = 16, channels: int = 1,
+              comment: str | None = None) -> None:
     """Write the signal as integer PCM WAV (16, 24 or 32 bit), chunk by chunk (little memory).
 
     With ``channels=2`` the second channel carries the same ticks at 0.7 of the level with its
-    own noise — two microphones at different distances.
+    own noise — two microphones at different distances. ``comment`` is stored in the file as a
+    RIFF ``LIST``/``INFO`` ``ICMT`` chunk after the samples.
     """
     width = bits // 8
     if bits not in (16, 24, 32):
@@ -190,3 +193,13 @@ def write_wav(spec: TickSignalSpec, path: str | Path, bits: int = 16, channels: 
             else:
                 raw = q.view(np.uint8).reshape(-1, 4)[:, :3].tobytes()
             w.writeframes(raw)
+    if comment:
+        text = comment.encode("utf-8") + b"\0"
+        text += b"\0" * (len(text) & 1)
+        info = b"INFO" + b"ICMT" + struct.pack("<I", len(text)) + text
+        with open(path, "r+b") as fh:
+            fh.seek(0, 2)
+            fh.write(b"LIST" + struct.pack("<I", len(info)) + info)
+            size = fh.tell() - 8
+            fh.seek(4)
+            fh.write(struct.pack("<I", size))

@@ -169,3 +169,15 @@ class TestExits:
         with pytest.raises(DesignError) as err:
             analyse_recording(path)
         assert err.value.field == "recording"
+
+
+class TestDemoRecording:
+    def test_demo_file_is_marked_synthetic_and_gives_its_numbers(self) -> None:
+        root = Path(__file__).resolve().parents[2]
+        path = root / "resources" / "examples" / "demo_ticks.wav"
+        assert b"Synthetic: invented ticks" in path.read_bytes()[-400:]
+        a = analyse_recording(path, target_period_s=2.0)
+        # the script's chosen numbers: gains 4.0 s/day, out of beat by 1.5 ms
+        assert abs(a.rate_s_per_day - 4.0) < max(4 * a.rate_sigma_s_per_day, 0.1)
+        assert a.beat_asymmetry_ms == pytest.approx(1.5, abs=0.1)
+        assert a.missing == 1 and a.rejected == 1
