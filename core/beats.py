@@ -143,6 +143,16 @@ class BeatAnalysis:
     warnings: tuple[str, ...]
 
     @property
+    def beat_asymmetry_ms(self) -> float:
+        """|a| in ms."""
+        return 1e3 * self.beat_asymmetry_s
+
+    @property
+    def timing_scatter_ms(self) -> float:
+        """RMS of the fit's residuals, ms."""
+        return 1e3 * self.timing_scatter_s
+
+    @property
     def beat_asymmetry_percent(self) -> float:
         """|a| as a share of the beat, %."""
         return 100.0 * self.beat_asymmetry_s / self.beat_s
