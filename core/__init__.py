@@ -21,3 +21,9 @@ from .fileformat import (design_from_dict, design_to_dict, dumps_design, load_de
 __all__ = ["Design", "DesignError", "Result", "REPORT_KEYS", "analyse", "load_design",
            "save_design", "loads_design", "dumps_design", "design_from_dict", "design_to_dict",
            "with_value"]
+
+# beat recordings (DESIGN §9): analyse_recording(path, target_period_s, channel) -> BeatAnalysis
+from .beats import BEATS_REPORT_KEYS, BeatAnalysis, analyse_recording, analyse_ticks, beats_text  # noqa: E402
+
+__all__ += ["BeatAnalysis", "BEATS_REPORT_KEYS", "analyse_recording", "analyse_ticks",
+            "beats_text"]

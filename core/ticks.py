@@ -50,6 +50,7 @@ _CAND_SPACING_S = 0.02
 _CAND_HEIGHT = 2.5          # candidate events: envelope over the noise floor
 _ONSET_FRACTION = 0.3
 _TEMPLATE_ROUNDS = 3
+_BATCH = 256
 
 
 @dataclass(frozen=True, eq=False)
@@ -108,8 +109,9 @@ def _envelope(source: SampleSource) -> tuple[FloatArray, int]:
         y, zi = sosfilt(sos, x, zi=zi)
         n = len(y) // nbin * nbin
         if n:
-            parts.append(np.sqrt(np.mean(np.square(y[:n]).reshape(-1, nbin), axis=1)))
-    return (np.concatenate(parts) if parts else np.zeros(0)), nbin
+            parts.append(np.sqrt(np.mean(np.square(y[:n]).reshape(-1, nbin), axis=1)
+                                 ).astype(np.float32))
+    return (np.concatenate(parts).astype(np.float64) if parts else np.zeros(0)), nbin
 
 
 def _normalise(env: FloatArray, bins_per_s: int) -> FloatArray:
@@ -240,50 +242,65 @@ def _refine(source: SampleSource, coarse: IntArray, parity: IntArray, beat: floa
     after = m - q + int(round(0.004 * fs)) + s
     pad = int(round(0.01 * fs))
     starts = coarse - before - pad
-    raw = source.read_windows(starts, before + after + 2 * pad)
-    y = sosfiltfilt(highpass_sos(fs), raw, axis=1)[:, pad:-pad]
-    env = uniform_filter1d(np.abs(hilbert(y, axis=1)), max(1, int(3e-4 * fs)), axis=1)
-    onset = _onsets(env[:, :before + int(0.002 * fs)])
-    onset = np.clip(onset, q + s, y.shape[1] - (m - q) - s - 1)
+    width = before + after
+    n = len(coarse)
+    sos = highpass_sos(fs)
+    # the filtered windows are kept (float32, ~20 ms each: 30 MB for an hour at 48 kHz);
+    # everything wider is made a batch at a time
+    y = np.empty((n, width), dtype=np.float32)
+    onset = np.empty(n)
+    batches = [slice(b0, min(n, b0 + _BATCH)) for b0 in range(0, n, _BATCH)]
+    for sl in batches:
+        raw = source.read_windows(starts[sl], width + 2 * pad)
+        yb = sosfiltfilt(sos, raw, axis=1)[:, pad:-pad]
+        y[sl] = yb
+        env = uniform_filter1d(np.abs(hilbert(yb, axis=1)), max(1, int(3e-4 * fs)), axis=1)
+        onset[sl] = _onsets(env[:, :before + int(0.002 * fs)])
+    onset = np.clip(onset, q + s, width - (m - q) - s - 1)
     templates = np.zeros((2, m))
-    corr = np.zeros(len(coarse))
-    analytic = np.asarray(hilbert(y, axis=1))
+    corr = np.zeros(n)
     for _ in range(_TEMPLATE_ROUNDS):
         base = np.floor(onset).astype(np.int64)
-        z = _shift_rows(y, onset - base)
-        aligned = z[np.arange(len(z))[:, None], (base - q)[:, None] + np.arange(m)[None, :]]
-        for p in (0, 1):
-            if np.any(parity == p):
-                templates[p] = aligned[parity == p].mean(axis=0)
+        sums = np.zeros((2, m))
+        for sl in batches:
+            z = _shift_rows(y[sl].astype(np.float64), onset[sl] - base[sl])
+            aligned = z[np.arange(len(z))[:, None], (base[sl] - q)[:, None] + np.arange(m)]
+            for p in (0, 1):
+                sums[p] += aligned[parity[sl] == p].sum(axis=0)
+        counts = np.array([np.count_nonzero(parity == p) for p in (0, 1)])
+        templates = sums / np.maximum(counts, 1)[:, None]
         spec = np.abs(rfft(templates, axis=1))
         spec[:, 0] = 0.0
         half_cycle = [max(1, int(0.5 * m / max(1, int(np.argmax(sp))))) for sp in spec]
-        for r in range(len(y)):
-            t = templates[parity[r]]
-            lo = base[r] - q - s
-            seg = analytic[r, lo:lo + m + 2 * s]
-            cc = correlate(seg, t, mode="valid")
-            ke = int(np.argmax(np.abs(cc)))        # the correlation's envelope: no cycle slips
-            w = half_cycle[parity[r]]
-            c = cc.real
-            a, b = max(0, ke - w), min(len(c), ke + w + 1)
-            k = a + int(np.argmax(c[a:b]))         # then the carrier peak nearest to it
-            d = 0.0
-            if 0 < k < len(c) - 1:
-                # the analytic correlation's phase runs linearly through zero at the true
-                # lag: offset = −phase / (phase per sample); a parabola through three
-                # samples of a carrier near a third of the rate would err by a fifth of one
-                omega = 0.5 * float(np.angle(cc[k + 1] * np.conj(cc[k]))
-                                    + np.angle(cc[k] * np.conj(cc[k - 1])))
-                if omega > 0:
-                    d = float(np.clip(-np.angle(cc[k]) / omega, -1.0, 1.0))
-                else:
-                    den = c[k - 1] - 2 * c[k] + c[k + 1]
-                    d = 0.5 * (c[k - 1] - c[k + 1]) / den if den < 0 else 0.0
-            onset[r] = lo + q + k + d
-            norm = np.sqrt(np.sum(t ** 2) * np.sum(y[r, lo + k:lo + k + m] ** 2))
-            corr[r] = c[k] / norm if norm > 0 else 0.0
-        onset = np.clip(onset, q + s, y.shape[1] - (m - q) - s - 1)
+        energy = np.sum(templates ** 2, axis=1)
+        for sl in batches:
+            analytic = np.asarray(hilbert(y[sl].astype(np.float64), axis=1))
+            for j, r in enumerate(range(sl.start, sl.stop)):
+                t = templates[parity[r]]
+                lo = base[r] - q - s
+                cc = correlate(analytic[j, lo:lo + m + 2 * s], t, mode="valid")
+                ke = int(np.argmax(np.abs(cc)))    # the correlation's envelope: no cycle slips
+                w = half_cycle[parity[r]]
+                c = cc.real
+                a, b = max(0, ke - w), min(len(c), ke + w + 1)
+                k = a + int(np.argmax(c[a:b]))     # then the carrier peak nearest to it
+                d = 0.0
+                if 0 < k < len(c) - 1:
+                    # the analytic correlation's phase runs linearly through zero at the true
+                    # lag: offset = −phase / (phase per sample); a parabola through three
+                    # samples of a carrier near a third of the rate would err by a fifth
+                    omega = 0.5 * float(np.angle(cc[k + 1] * np.conj(cc[k]))
+                                        + np.angle(cc[k] * np.conj(cc[k - 1])))
+                    if omega > 0:
+                        d = float(np.clip(-np.angle(cc[k]) / omega, -1.0, 1.0))
+                    else:
+                        den = c[k - 1] - 2 * c[k] + c[k + 1]
+                        d = 0.5 * (c[k - 1] - c[k + 1]) / den if den < 0 else 0.0
+                onset[r] = lo + q + k + d
+                norm = np.sqrt(energy[parity[r]] * np.sum(
+                    y[r, lo + k:lo + k + m].astype(np.float64) ** 2))
+                corr[r] = c[k] / norm if norm > 0 else 0.0
+        onset = np.clip(onset, q + s, width - (m - q) - s - 1)
     # refer each parity's times to its template's own onset
     up = max(1, int(np.ceil(384_000 / fs)))      # onsets of the templates on a fine grid
     tenv = np.abs(hilbert(resample(templates, m * up, axis=1), axis=1))
@@ -313,6 +330,7 @@ def detect_ticks(source: SampleSource) -> TickDetection:
     env, nbin = _envelope(source)
     bin_s = nbin / fs
     norm = _normalise(env, int(round(1.0 / bin_s)))
+    del env
     pk, props = find_peaks(norm, height=_CAND_HEIGHT,
                            distance=max(1, int(round(_CAND_SPACING_S / bin_s))))
     if len(pk) < 3:
@@ -320,7 +338,7 @@ def detect_ticks(source: SampleSource) -> TickDetection:
     ch = np.asarray(props["peak_heights"], dtype=np.float64)
     beat = _beat_from_autocorrelation(norm, ch, bin_s)
     ct = pk * bin_s
-    cand, idx = _follow(ct, ch, beat, len(env) * bin_s)
+    cand, idx = _follow(ct, ch, beat, len(norm) * bin_s)
     if len(cand) < 3:
         raise DesignError("recording", "holds no regular ticks")
     coarse = pk[cand] * nbin
