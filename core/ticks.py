@@ -18,9 +18,11 @@ Three stages, each on what it needs:
 3. **Sub-sample timing.** Around each tick the raw samples are read again, filtered with the
    zero-phase :func:`scipy.signal.sosfiltfilt`, aligned first by the onset of their Hilbert
    envelope and then by cross-correlation with the clock's own average tick (one template per
-   parity, since tick and tock differ), the correlation peak interpolated by a parabola; the
-   template is rebuilt from the aligned ticks and the alignment repeated. Each time refers to
-   the onset of the average tick (its envelope's first crossing of 30 % of its peak).
+   parity, since tick and tock differ), the correlation peak placed from the phase of the
+   analytic correlation; the template is rebuilt from the aligned ticks and the alignment
+   repeated. Each time refers to the onset of the average tick (its envelope's first crossing
+   of 30 % of its peak); when tick and tock have the same shape (correlation ≥ 0.9) the tock's
+   average is placed against the tick's by correlation instead, so both share one onset.
 """
 
 from __future__ import annotations
@@ -51,6 +53,7 @@ _CAND_HEIGHT = 2.5          # candidate events: envelope over the noise floor
 _ONSET_FRACTION = 0.3
 _TEMPLATE_ROUNDS = 3
 _BATCH = 256
+_SAME_SHAPE = 0.9        # normalised correlation of the two average ticks
 
 
 @dataclass(frozen=True, eq=False)
@@ -303,8 +306,16 @@ def _refine(source: SampleSource, coarse: IntArray, parity: IntArray, beat: floa
         onset = np.clip(onset, q + s, width - (m - q) - s - 1)
     # refer each parity's times to its template's own onset
     up = max(1, int(np.ceil(384_000 / fs)))      # onsets of the templates on a fine grid
-    tenv = np.abs(hilbert(resample(templates, m * up, axis=1), axis=1))
-    ref = _onsets(tenv) / up - q
+    fine = np.asarray(resample(templates, m * up, axis=1))
+    ref = _onsets(np.abs(hilbert(fine, axis=1))) / up - q
+    # tick and tock alike in shape: one onset for both, the tock's placed by correlating the
+    # two average ticks (their envelopes' crossings alone would differ by the noise left in
+    # each average, a bias of the asymmetry); unlike: each keeps its own onset
+    cc = correlate(fine[1], fine[0], mode="full")
+    lag = int(np.argmax(cc))
+    similar = cc[lag] / max(float(np.sqrt(np.sum(fine[0] ** 2) * np.sum(fine[1] ** 2))), 1e-300)
+    if similar >= _SAME_SHAPE and np.all(counts > 0):
+        ref[1] = ref[0] + (lag - (m * up - 1)) / up
     times = (starts + pad + onset + ref[parity]) / fs
     return times, corr, templates, q
 
