@@ -1,6 +1,7 @@
 """The ``penduline`` command: the window, and ``report``, ``solve``, ``sweep``, ``export``.
 
-Exit codes: 0 success, 2 bad input (one line on stderr naming the field), 1 unexpected failure.
+Exit codes: 0 success, 2 bad input (one line on stderr naming the field), 1 a program failure
+(one line asking for a report; ``--debug`` anywhere on the line adds the traceback).
 """
 
 from __future__ import annotations
@@ -9,8 +10,10 @@ import argparse
 import json
 import os
 import sys
+import traceback
+from collections.abc import Sequence
 from pathlib import Path
-from typing import Any, Sequence
+from typing import Any
 
 __all__ = ["main"]
 
@@ -32,6 +35,8 @@ def _parsers() -> tuple[_Parser, _Parser]:
     window.add_argument("file", nargs="?", help="design file to open (default: an example)")
     window.add_argument("--screenshot", metavar="OUT.png",
                         help="draw the window offscreen, save it as PNG and exit")
+    window.add_argument("--debug", action="store_true",
+                        help="on a program failure, print the traceback (any command)")
     tools = _Parser(prog="penduline")
     sub = tools.add_subparsers(dest="command", required=True)
     rep = sub.add_parser("report", help="print the readout")
@@ -71,6 +76,8 @@ def _parsers() -> tuple[_Parser, _Parser]:
 def main(argv: Sequence[str] | None = None) -> int:
     """Run the command line; returns the exit code."""
     args_list = list(sys.argv[1:] if argv is None else argv)
+    debug = "--debug" in args_list
+    args_list = [a for a in args_list if a != "--debug"]
     from core import DesignError
 
     try:
@@ -79,7 +86,7 @@ def main(argv: Sequence[str] | None = None) -> int:
             args = tools.parse_args(args_list)
             return _COMMAND_RUNNERS[args.command](args)
         args = window.parse_args(args_list)
-        from .launch import run_window
+        from app.launch import run_window
         return run_window(args.file, args.screenshot)
     except DesignError as exc:
         print(f"penduline: {exc.field}: {exc.reason}", file=sys.stderr)
@@ -95,16 +102,18 @@ def main(argv: Sequence[str] | None = None) -> int:
         return 0
     except KeyboardInterrupt:
         return 1
-    except Exception as exc:  # the last line of defence: one line, no traceback
-        print(f"penduline: unexpected failure: {type(exc).__name__}: {exc}", file=sys.stderr)
+    except Exception as exc:  # a program bug: one line (the traceback only with --debug)
+        if debug:
+            traceback.print_exc(file=sys.stderr)
+        print(f"penduline: internal error: {type(exc).__name__}: {exc} — please report it; "
+              "run with --debug for the traceback", file=sys.stderr)
         return 1
 
 
 def _report(args: argparse.Namespace) -> int:
+    from app.readout.readout_format import rows
     from core import analyse, load_design
     from core.tuning import budget_ranges
-
-    from .readout_format import rows
 
     design = load_design(args.file)
     ranges = budget_ranges(args.budget_temperature, args.budget_pressure, args.budget_arc)
@@ -157,13 +166,13 @@ def _sweep(args: argparse.Namespace) -> int:
 
     table = sweep_field(load_design(args.file), args.vary, args.start, args.stop, args.points)
     print(f"{table.field},period_s,rate_s_per_day")
-    for x, t, r in zip(table.values, table.period_s, table.rate_s_per_day):
+    for x, t, r in zip(table.values, table.period_s, table.rate_s_per_day, strict=True):
         print(f"{x:.9g},{'' if t != t else f'{t:.12g}'},{'' if r != r else f'{r:.6f}'}")
     return 0
 
 
 def _export(args: argparse.Namespace) -> int:
-    from .export import export_all
+    from app.report.export import export_all
 
     for path in export_all(args.file, args.out):
         print(path)

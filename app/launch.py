@@ -37,8 +37,8 @@ def run_window(path: str | None, screenshot: str | None) -> int:
 
     from PySide6.QtWidgets import QApplication
 
-    from .main_window import MainWindow
-    from .settings import APPLICATION, ORGANISATION
+    from app.document.settings import APPLICATION, ORGANISATION
+    from app.window.main_window import MainWindow
 
     app = QApplication.instance() or QApplication(sys.argv[:1])
     app.setOrganizationName(ORGANISATION)

@@ -52,7 +52,8 @@ QFrame#Warning {{
     border-radius: 4px;
 }}
 QLabel#NoteHeading {{ font-weight: 700; color: {INK}; }}
-QTreeWidget {{ background: #fffefc; alternate-background-color: #f7f5f0; border: 1px solid #d8d4cc; }}
+QTreeWidget {{ background: #fffefc; alternate-background-color: #f7f5f0;
+               border: 1px solid #d8d4cc; }}
 QTreeWidget::item {{ padding: 1px 2px; }}
 QHeaderView::section {{
     background: #ebe8e1; border: none; border-right: 1px solid #d8d4cc; padding: 3px 6px;

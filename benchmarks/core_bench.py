@@ -146,7 +146,7 @@ def interleaved_ms(fns: list[Callable[[], object]], runs: list[int]) -> list[flo
     times: list[list[float]] = [[] for _ in fns]
     rounds = max(runs)
     for i in range(rounds):
-        for fn, n, out in zip(fns, runs, times):
+        for fn, n, out in zip(fns, runs, times, strict=True):
             if i * n // rounds != (i + 1) * n // rounds:
                 start = time.perf_counter()
                 fn()
@@ -241,7 +241,7 @@ def curve_subsample(n: int) -> NDArray[np.intp]:
 
 
 def curve_error(periods: FloatArray, reference: list[mpmath.mpf]) -> float:
-    return max(float(abs(mpmath.mpf(p) / r - 1)) for p, r in zip(periods, reference))
+    return max(float(abs(mpmath.mpf(p) / r - 1)) for p, r in zip(periods, reference, strict=True))
 
 
 def measure(name: str, design: core.Design) -> Row:
@@ -324,7 +324,7 @@ def main() -> None:
     print("θ err: max |θ − θ_ref| rad over the result's motion; T err: max relative error of "
           f"the period curve at {CURVE_SAMPLES} amplitudes vs mpmath 30 digits")
     print(reference_check())
-    missed = [(r, d) for r, (_n, d) in zip(rows, designs) if r.goal_misses]
+    missed = [(r, d) for r, (_n, d) in zip(rows, designs, strict=True) if r.goal_misses]
     for row, design in missed:
         print(f"\nProfile of analyse for '{row.name}' (misses: {', '.join(row.goal_misses)}):")
         profile(design)

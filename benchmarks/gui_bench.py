@@ -58,8 +58,8 @@ def _open_window(arrangement: str):  # type: ignore[no-untyped-def]
     application, the window and the rod-length field."""
     from PySide6.QtWidgets import QApplication
 
-    from app.main_window import MainWindow
-    from app.number_field import NumberField
+    from app.form.number_field import NumberField
+    from app.window.main_window import MainWindow
     from core import load_design
 
     app = QApplication.instance() or QApplication(sys.argv[:1])
@@ -134,7 +134,7 @@ class _FrameCounter:
         counter = self
 
         class Filter(QObject):
-            def eventFilter(self, _obj, event) -> bool:  # type: ignore[no-untyped-def]  # noqa: N802
+            def eventFilter(self, _obj, event) -> bool:  # type: ignore[no-untyped-def]
                 if event.type() == QEvent.Type.Paint:
                     counter.seen(preview.time_s)
                 return False
@@ -154,7 +154,7 @@ def bench_animation(arrangement: str) -> None:
     """Animation frames drawn and edits sustained, with the swing preview on view at 1×."""
     from PySide6.QtCore import QEventLoop, QTimer
 
-    from app.preview import SwingPreview
+    from app.views.swing_preview import SwingPreview
 
     app, window, field = _open_window(arrangement)
     index = next(i for i, p in enumerate(window.plots) if isinstance(p, SwingPreview))
@@ -215,7 +215,7 @@ def bench_preview() -> None:
     """The swing preview's ``show_result`` for results that differ only in geometry."""
     from PySide6.QtWidgets import QApplication
 
-    from app.preview import SwingPreview
+    from app.views.swing_preview import SwingPreview
     from core import analyse, load_design, with_value
 
     app = QApplication.instance() or QApplication(sys.argv[:1])

@@ -13,12 +13,13 @@ from typing import Any
 import numpy as np
 from numpy.typing import NDArray
 
+from .constants import SECONDS_PER_DAY, STANDARD_GRAVITY
 from .design import Bob, ClampMount, Design, Rod, beats_per_hour
 from .errors import DesignError, guarded
 from .exhibit import ExhibitFigures, exhibit_figures
 from .fileformat import design_from_dict, design_to_dict
 from .mass_properties import Body
-from .model import SECONDS_PER_DAY, PendulumState, pendulum_state
+from .model import PendulumState, pendulum_state
 from .motion import Motion, motion
 from .period import period_exact
 from .phase import PhasePortrait, phase_portrait
@@ -139,15 +140,15 @@ def _validated(design: Design | dict[str, Any]) -> Design:
     """Check any design object (or a parsed file dict) through the one validator."""
     if isinstance(design, Design):
         try:
-            return design_from_dict(design_to_dict(design))
-        except DesignError:
-            raise
-        except Exception as exc:
+            text = design_to_dict(design)
+        except (AttributeError, TypeError, KeyError) as exc:  # a Design built by hand, badly
             raise DesignError("design", f"is not a complete design ({type(exc).__name__})"
                               ) from None
+        return design_from_dict(text)
     if isinstance(design, dict):
         return design_from_dict(design)
-    raise DesignError("design", f"must be a Design, not {type(design).__name__}")
+    raise TypeError(f"analyse needs a Design or a parsed design file (a dict), not "
+                    f"{type(design).__name__}")
 
 
 def _warnings(design: Design, state: PendulumState) -> tuple[str, ...]:
@@ -184,7 +185,8 @@ def _cautions(design: Design, exhibit: ExhibitFigures) -> tuple[str, ...]:
     if design.suspension.kind == "spring":
         out.append(SPRING_CAUTION)
     if exhibit.static_load_n > 200.0:
-        out.append(f"Heavy pendulum ({exhibit.static_load_n / 9.80665:.3g} kg): keep people out "
+        kg = exhibit.static_load_n / STANDARD_GRAVITY
+        out.append(f"Heavy pendulum ({kg:.3g} kg): keep people out "
                    "from under it and out of its sweep while it is hung, tested or stopped.")
     if design.site.latitude_deg != 0.0:
         out.append("A swing started with the least sideways motion becomes elliptical and its "

@@ -11,7 +11,8 @@ period is 2b. The 1-σ uncertainties are the standard errors √diag(s²(XᵀX)�
 positive when the clock gains; its σ follows from σ_b. The drift is the rate of the last third
 of the recording minus that of the first third (each fitted alone). Ticks whose shape is unlike
 the clock's own (correlation with the average tick under half the median) or that stand off the
-beat (residual beyond 6 robust σ, and 30 µs, from the median of its 7 neighbours' residuals) are rejected before the final fit.
+beat (residual beyond 6 robust σ, and 30 µs, from the median of its 7 neighbours' residuals)
+are rejected before the final fit.
 """
 
 from __future__ import annotations
@@ -36,7 +37,8 @@ __all__ = ["BeatFit", "BeatAnalysis", "fit_beats", "analyse_recording", "analyse
 
 FloatArray = NDArray[np.float64]
 IntArray = NDArray[np.int64]
-SECONDS_PER_DAY = 86400.0
+from .constants import SECONDS_PER_DAY  # noqa: E402
+
 MIN_TICKS = 8
 MIN_PERIOD_S = 0.1
 MAX_PERIOD_S = 20.0
@@ -230,7 +232,8 @@ def analyse_detection(det: TickDetection, target_period_s: float | None = None) 
     period = 2.0 * b
     if not MIN_PERIOD_S <= period <= MAX_PERIOD_S:
         raise DesignError("recording", f"the period found, {period:.4g} s, is outside "
-                                       f"{MIN_PERIOD_S:g}–{MAX_PERIOD_S:g} s: not a clock's ticking")
+                                       f"{MIN_PERIOD_S:g}–{MAX_PERIOD_S:g} s: not a clock's "
+                                       "ticking")
     missing = int(index[-1] - index[0] + 1 - len(index))
     drift = drift_sigma = None
     ref = target if target is not None else period

@@ -9,25 +9,31 @@ made by :func:`core.fileformat.design_from_dict` (which validates it); editing m
 from __future__ import annotations
 
 from dataclasses import dataclass
-from typing import Literal, Union
+from typing import Literal
+
+from .constants import BEATS_PER_PERIOD, SECONDS_PER_HOUR
+from .materials import MATERIALS, Material
+from .rating_log import RatingLog
 
 __all__ = [
     "Site", "Suspension", "Rod", "Sleeve", "ClampMount", "SleeveMount", "Bob", "Weight",
     "Swing", "Target", "RatingNut", "Design", "Part", "BOB_SHAPES", "beats_per_hour",
-    "period_from_beats_per_hour",
+    "period_from_beats_per_hour", "Blades", "HangsFrom", "ExhibitSite", "PURPOSES",
 ]
 
 BOB_SHAPES = ("disc", "lens", "cylinder", "sphere")
+PURPOSES = ("clock", "exhibit")
+_BEAT_SECONDS_PER_HOUR = BEATS_PER_PERIOD * SECONDS_PER_HOUR  # 7200
 
 
 def beats_per_hour(period_s: float) -> float:
     """Beats per hour of a full period (s): two beats a period, 7200 / T."""
-    return 7200.0 / period_s
+    return _BEAT_SECONDS_PER_HOUR / period_s
 
 
 def period_from_beats_per_hour(beats: float) -> float:
     """Full period, s, of a pendulum beating ``beats`` times an hour."""
-    return 7200.0 / beats
+    return _BEAT_SECONDS_PER_HOUR / beats
 
 
 @dataclass(frozen=True)
@@ -42,16 +48,50 @@ class Site:
 
 
 @dataclass(frozen=True)
+class Blades:
+    """A suspension spring given by its blades (format 2); lengths in m.
+
+    ``count`` blades side by side, each ``width_m`` wide, ``thickness_m`` thick, bending over
+    ``free_length_m`` between the chops, of material ``material``.
+    """
+
+    count: int
+    material: str
+    width_m: float
+    thickness_m: float
+    free_length_m: float
+
+
+@dataclass(frozen=True)
 class Suspension:
-    """``knife_edge`` (ideal hinge) or ``spring`` (restoring torque stiffness·θ, N·m/rad)."""
+    """``knife_edge`` (ideal hinge) or ``spring`` (restoring torque stiffness·θ, N·m/rad).
+
+    A spring may be given by its ``blades`` (format 2); its stiffness is then derived from them
+    when the design is read (see :mod:`core.validate`) and the file keeps the stiffness null.
+    """
 
     kind: Literal["knife_edge", "spring"] = "knife_edge"
     stiffness_n_m_per_rad: float = 0.0
+    blades: Blades | None = None
+
+
+@dataclass(frozen=True)
+class HangsFrom:
+    """Where a rod hangs when not from the pivot: the ``end`` of rod or sleeve ``part``."""
+
+    part: str
+    end: Literal["lower", "upper"] = "lower"
 
 
 @dataclass(frozen=True)
 class Rod:
-    """A round uniform rod hanging from ``top_m`` below the pivot."""
+    """A round uniform rod hanging from ``top_m`` below the pivot.
+
+    When the rod ``hangs_from`` the end of another rod or sleeve (format 2), ``top_m`` is where
+    that end is at the reference temperature, worked out when the design is read; how the top
+    follows that end as temperatures change belongs to the mount-chain physics in
+    :mod:`core.mass_properties`.
+    """
 
     name: str
     material: str
@@ -60,6 +100,7 @@ class Rod:
     diameter_m: float
     mass_kg: float | None = None
     kind: Literal["rod"] = "rod"
+    hangs_from: HangsFrom | None = None
 
 
 @dataclass(frozen=True)
@@ -107,6 +148,8 @@ class Bob:
     height_m: float | None = None
     mass_kg: float | None = None
     kind: Literal["bob"] = "bob"
+    support: Literal["bottom", "centre"] = "bottom"
+    hole_diameter_m: float | None = None
 
     @property
     def half_height_m(self) -> float:
@@ -128,7 +171,7 @@ class Weight:
     kind: Literal["weight"] = "weight"
 
 
-Part = Union[Rod, Sleeve, Bob, Weight]
+Part = Rod | Sleeve | Bob | Weight
 
 
 @dataclass(frozen=True)
@@ -164,8 +207,21 @@ class RatingNut:
 
 
 @dataclass(frozen=True)
+class ExhibitSite:
+    """Where the floor and the visitors are (format 2), m; None where not given."""
+
+    pivot_above_floor_m: float | None = None
+    barrier_radius_m: float | None = None
+
+
+@dataclass(frozen=True)
 class Design:
-    """One pendulum design (see DESIGN §3 for the file form)."""
+    """One pendulum design (see DESIGN §3 and §8 for the file form).
+
+    Every field after ``swing`` is optional with a default, so an optional file section is
+    added as one more defaulted field here plus its reader and writer in
+    :data:`core.validate.SECTIONS`.
+    """
 
     name: str
     reference_temperature_c: float
@@ -175,6 +231,18 @@ class Design:
     swing: Swing
     target: Target = Target()
     rating_nut: RatingNut = RatingNut()
+    purpose: Literal["clock", "exhibit"] = "clock"
+    exhibit: ExhibitSite | None = None
+    materials: tuple[Material, ...] = ()
+    rating_log: RatingLog | None = None
+
+    def material(self, key: str) -> Material:
+        """The material called ``key``: one of the user's, else a built-in one (``KeyError``
+        when neither)."""
+        for m in self.materials:
+            if m.key == key:
+                return m
+        return MATERIALS[key]
 
     def part(self, name: str) -> Part:
         """The part called ``name`` (``KeyError`` when absent)."""

@@ -3,7 +3,8 @@
 from __future__ import annotations
 
 import functools
-from typing import Any, Callable, TypeVar
+from collections.abc import Callable
+from typing import Any, TypeVar
 
 F = TypeVar("F", bound=Callable[..., Any])
 
@@ -29,10 +30,12 @@ class DesignError(ValueError):
 
 
 def guarded(field: str) -> Callable[[F], F]:
-    """Decorate a public core function so that nothing but :class:`DesignError` escapes it.
+    """Decorate a public core function so that input too deep or too large to process is
+    refused as a :class:`DesignError` on ``field``.
 
-    An unexpected exception (a defect, or input of a kind no check foresaw) is reported as a
-    ``DesignError`` on ``field`` naming the exception type, never as a traceback.
+    Only those two ways in which *input* defeats the program are translated. Any other
+    exception is a defect (or a caller passing the wrong type, a ``TypeError``) and propagates
+    unchanged, so that it is reported as a program failure, not as bad input.
     """
 
     def wrap(func: F) -> F:
@@ -40,15 +43,10 @@ def guarded(field: str) -> Callable[[F], F]:
         def inner(*args: Any, **kwargs: Any) -> Any:
             try:
                 return func(*args, **kwargs)
-            except DesignError:
-                raise
             except RecursionError:
                 raise DesignError(field, "is nested too deeply") from None
             except MemoryError:
                 raise DesignError(field, "is too large to process") from None
-            except Exception as exc:  # noqa: BLE001 - the contract: only DesignError escapes
-                raise DesignError(field, f"cannot be used ({type(exc).__name__}: {exc})"
-                                  ) from None
         return inner  # type: ignore[return-value]
 
     return wrap

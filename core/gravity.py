@@ -14,9 +14,9 @@ from __future__ import annotations
 
 import math
 
-__all__ = ["STANDARD_GRAVITY", "normal_gravity"]
+from .constants import STANDARD_GRAVITY
 
-STANDARD_GRAVITY = 9.80665  # m/s², 3rd CGPM (1901)
+__all__ = ["STANDARD_GRAVITY", "normal_gravity"]
 
 _GAMMA_E = 9.7803253359  # m/s², normal gravity at the equator
 _K = 0.00193185265241  # Somigliana's constant

@@ -22,7 +22,7 @@ from dataclasses import dataclass
 
 from .air import ellipsoid_added_mass_coefficient
 from .design import Bob, ClampMount, Design, Rod, Sleeve, Weight
-from .materials import MATERIALS
+from .materials import Material
 
 __all__ = ["Body", "MassProperties", "layout", "mass_properties"]
 
@@ -99,29 +99,29 @@ class MassProperties:
         return self.first_moment_kg_m - self.displaced_first_moment_kg_m
 
 
-def _grow(material: str, delta_k: float) -> float:
-    return 1.0 + MATERIALS[material].expansion_per_k * delta_k
+def _grow(material: Material, delta_k: float) -> float:
+    return 1.0 + material.expansion_per_k * delta_k
 
 
-def _rod_body(rod: Rod, delta_k: float) -> Body:
-    s = _grow(rod.material, delta_k)
+def _rod_body(rod: Rod, mat: Material, delta_k: float) -> Body:
+    s = _grow(mat, delta_k)
     length, d = rod.length_m * s, rod.diameter_m * s
     volume = math.pi * d * d / 4.0 * length
     mass = rod.mass_kg if rod.mass_kg is not None else (
-        MATERIALS[rod.material].density_kg_m3 * volume / s**3)
+        mat.density_kg_m3 * volume / s**3)
     centre = rod.top_m + length / 2.0
     return Body(rod.name, "rod", "rod", mass, centre, mass * (length**2 / 12.0 + d * d / 16.0),
                 volume, ellipsoid_added_mass_coefficient(d / 2, d / 2, length / 2), length,
                 rod.top_m, rod.top_m + length, d, 0.0, rod.material)
 
 
-def _sleeve_body(sleeve: Sleeve, rod: Body, delta_k: float) -> Body:
-    s = _grow(sleeve.material, delta_k)
+def _sleeve_body(sleeve: Sleeve, mat: Material, rod: Body, delta_k: float) -> Body:
+    s = _grow(mat, delta_k)
     length = sleeve.length_m * s
     big, small = sleeve.outer_diameter_m * s / 2.0, sleeve.inner_diameter_m * s / 2.0
     volume = math.pi * (big * big - small * small) * length
     mass = sleeve.mass_kg if sleeve.mass_kg is not None else (
-        MATERIALS[sleeve.material].density_kg_m3 * volume / s**3)
+        mat.density_kg_m3 * volume / s**3)
     bottom = rod.bottom_m
     centre = bottom - length / 2.0
     inertia = mass * (3.0 * (big * big + small * small) + length**2) / 12.0
@@ -147,16 +147,18 @@ def _bob_shape(bob: Bob, s: float) -> tuple[float, float, float, tuple[float, fl
 
 
 def _bob_body(bob: Bob, design: Design, bodies: dict[str, Body], delta_k: float) -> Body:
-    s = _grow(bob.material, delta_k)
+    mat = design.material(bob.material)
+    s = _grow(mat, delta_k)
     volume, k2, half, axes = _bob_shape(bob, s)
     mass = bob.mass_kg if bob.mass_kg is not None else (
-        MATERIALS[bob.material].density_kg_m3 * volume / s**3)
+        mat.density_kg_m3 * volume / s**3)
     if isinstance(bob.mount, ClampMount):
         rod = design.part(bob.mount.on)
         assert isinstance(rod, Rod)
-        centre = rod.top_m + (bob.mount.centre_m - rod.top_m) * _grow(rod.material, delta_k)
-    else:
-        centre = bodies[bob.mount.on].top_m - half
+        centre = rod.top_m + (bob.mount.centre_m - rod.top_m) * _grow(
+            design.material(rod.material), delta_k)
+    else:  # resting on the sleeve's top: by its bottom (default) or at its centre
+        centre = bodies[bob.mount.on].top_m - (0.0 if bob.support == "centre" else half)
     width = bob.diameter_m * s
     return Body(bob.name, "bob", bob.shape, mass, centre, mass * k2, volume,
                 ellipsoid_added_mass_coefficient(*axes), 0.0, centre - half, centre + half,
@@ -166,7 +168,7 @@ def _bob_body(bob: Bob, design: Design, bodies: dict[str, Body], delta_k: float)
 def _weight_body(weight: Weight, design: Design, delta_k: float) -> Body:
     rod = design.part(weight.on)
     assert isinstance(rod, Rod)
-    z = rod.top_m + (weight.at_m - rod.top_m) * _grow(rod.material, delta_k)
+    z = rod.top_m + (weight.at_m - rod.top_m) * _grow(design.material(rod.material), delta_k)
     return Body(weight.name, "weight", "point", weight.mass_kg, z, 0.0, 0.0, 0.0, 0.0, z, z, 0.0)
 
 
@@ -178,10 +180,11 @@ def layout(design: Design, temperature_c: float | None = None) -> tuple[Body, ..
     bodies: dict[str, Body] = {}
     for p in design.parts:  # rods first: everything else hangs from them
         if isinstance(p, Rod):
-            bodies[p.name] = _rod_body(p, delta_k)
+            bodies[p.name] = _rod_body(p, design.material(p.material), delta_k)
     for p in design.parts:
         if isinstance(p, Sleeve):
-            bodies[p.name] = _sleeve_body(p, bodies[p.on], delta_k)
+            bodies[p.name] = _sleeve_body(p, design.material(p.material), bodies[p.on],
+                                          delta_k)
     for p in design.parts:
         if isinstance(p, Bob):
             bodies[p.name] = _bob_body(p, design, bodies, delta_k)

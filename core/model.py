@@ -10,16 +10,14 @@ import math
 from dataclasses import dataclass
 
 from .air import air_density
-from .design import Bob, Design
+from .constants import SECONDS_PER_DAY
+from .design import Design
 from .errors import DesignError
 from .gravity import normal_gravity
 from .mass_properties import Body, MassProperties, layout, mass_properties
 from .period import period_at, period_exact_and_slopes, period_small
 
 __all__ = ["PendulumState", "pendulum_state", "SECONDS_PER_DAY"]
-
-SECONDS_PER_DAY = 86400.0
-
 
 @dataclass(frozen=True)
 class PendulumState:
@@ -65,7 +63,8 @@ class PendulumState:
 
     @property
     def rate_per_period_change(self) -> float:
-        """d(rate)/dT, (s/day)/s: −86400·T_target/T² (the clock's own T when no target)."""
+        """d(rate)/dT, (s/day)/s: −SECONDS_PER_DAY·T_target/T² (the clock's own T when no
+        target)."""
         t = self.target_period_s or self.period_s
         return -SECONDS_PER_DAY * t / self.period_s**2
 
@@ -135,14 +134,3 @@ def pendulum_state(design: Design, *, temperature_c: float | None = None,
         period, d_a, d_k = period_at(inertia, torque, k, theta0), math.nan, math.nan
     return PendulumState(design, t, p, g, rho, bodies, mass, inertia, torque, k, theta0,
                          period, period_small(inertia, torque, k), d_a, d_k)
-
-
-def bob_index(design: Design, state: PendulumState) -> int | None:
-    """Index in ``design.parts`` of the main (heaviest) bob."""
-    bob = state.main_bob()
-    if bob is None:
-        return None
-    for i, p in enumerate(design.parts):
-        if isinstance(p, Bob) and p.name == bob.name:
-            return i
-    return None

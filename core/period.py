@@ -104,7 +104,7 @@ def _spring_periods(inertia: float, torque: float, k: float, theta0: FloatArray
         idx = np.flatnonzero(todo)
         finer = _quadrature(inertia, torque, k, theta0[idx], n)
         gap = np.abs(finer[0] - out[0][idx]) / finer[0]
-        for arr, new in zip(out, finer):
+        for arr, new in zip(out, finer, strict=True):
             arr[idx] = new
         done = (gap <= _CONVERGED) | (gap > 0.5 * last_gap[idx])
         last_gap[idx] = gap

@@ -9,15 +9,23 @@ so, with the nearest value it could reach: never a silent wrong answer.
 from __future__ import annotations
 
 import math
+from collections.abc import Callable
 from dataclasses import dataclass
-from typing import Any, Callable, Literal
+from typing import Any, Literal
 
 import numpy as np
 from numpy.typing import NDArray
 
 from .design import Design
 from .errors import DesignError, guarded
-from .fileformat import check_number, design_from_dict, design_to_dict, field_range, get_value, set_in_dict
+from .fileformat import (
+    check_number,
+    design_from_dict,
+    design_to_dict,
+    field_range,
+    get_value,
+    set_in_dict,
+)
 from .model import SECONDS_PER_DAY, pendulum_state
 from .tuning import sensitivities
 

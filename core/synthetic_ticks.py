@@ -88,7 +88,8 @@ def _burst(tau: FloatArray, freq_hz: float, rise_s: float, decay_s: float) -> Fl
     out = np.zeros_like(tau)
     pos = tau >= 0.0
     tp = tau[pos]
-    out[pos] = (1.0 - np.exp(-tp / rise_s)) * np.exp(-tp / decay_s) * np.sin(2 * np.pi * freq_hz * tp)
+    out[pos] = ((1.0 - np.exp(-tp / rise_s)) * np.exp(-tp / decay_s)
+                * np.sin(2 * np.pi * freq_hz * tp))
     return out
 
 

@@ -4,9 +4,10 @@ Three stages, each on what it needs:
 
 1. **Envelope** (one pass over the file, block by block). A 4th-order Butterworth band-pass
    (1–8 kHz, within 0.2–0.45 of the sample rate) removes mains hum and its harmonics, any slow
-   level change and the hiss above the ticks' band; its state is carried from block to block (:func:`scipy.signal.sosfilt` with
-   ``zi``), so blocks join without seams. The rms of each 1 ms bin is kept (3.6 M numbers for an
-   hour), divided by the local noise floor (median of each second, interpolated).
+   level change and the hiss above the ticks' band; its state is carried from block to block
+   (:func:`scipy.signal.sosfilt` with ``zi``), so blocks join without seams. The rms of each
+   1 ms bin is kept (3.6 M numbers for an hour), divided by the local noise floor (median of
+   each second, interpolated).
 2. **Beat and tracking.** The beat is the lag of the strongest peak of the autocorrelation of
    the clipped envelope (:func:`scipy.signal.correlate`), halved when half that lag also
    carries a peak (a clock out of beat splits the lag of one beat into two). Candidate events
@@ -33,13 +34,22 @@ import numpy as np
 from numpy.typing import NDArray
 from scipy.fft import irfft, rfft, rfftfreq
 from scipy.ndimage import uniform_filter1d
-from scipy.signal import (butter, correlate, find_peaks, hilbert, resample, sosfilt,
-                          sosfilt_zi, sosfiltfilt)
+from scipy.signal import (
+    butter,
+    correlate,
+    find_peaks,
+    hilbert,
+    resample,
+    sosfilt,
+    sosfilt_zi,
+    sosfiltfilt,
+)
 
 from .errors import DesignError
 from .recording import SampleSource
 
-__all__ = ["TickDetection", "detect_ticks", "highpass_sos", "bandpass_sos", "MIN_BEAT_S", "MAX_BEAT_S"]
+__all__ = ["TickDetection", "detect_ticks", "highpass_sos", "bandpass_sos", "MIN_BEAT_S",
+           "MAX_BEAT_S"]
 
 FloatArray = NDArray[np.float64]
 IntArray = NDArray[np.int64]
@@ -107,6 +117,9 @@ def _envelope(source: SampleSource) -> tuple[FloatArray, int]:
     zi: FloatArray | None = None
     for start in range(0, source.frames, block):
         x = source.read(start, start + block)
+        if not np.all(np.isfinite(x)):
+            raise DesignError("recording", "contains samples that are not finite numbers "
+                                           "(NaN or infinity)")
         if zi is None:
             zi = sosfilt_zi(sos) * x[0]
         y, zi = sosfilt(sos, x, zi=zi)
@@ -338,6 +351,9 @@ def detect_ticks(source: SampleSource) -> TickDetection:
         On ``recording`` when no ticks are found or the recording is shorter than three beats.
     """
     fs = source.rate_hz
+    if source.frames < 3 * MIN_BEAT_S * fs:
+        raise DesignError("recording", f"is too short ({source.frames / fs:.3g} s): it must hold "
+                                       "at least three beats")
     env, nbin = _envelope(source)
     bin_s = nbin / fs
     norm = _normalise(env, int(round(1.0 / bin_s)))

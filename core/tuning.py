@@ -11,6 +11,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+from .constants import SECONDS_PER_DAY
 from .design import Bob, ClampMount, Design
 from .errors import DesignError
 from .mass_properties import Body
@@ -79,11 +80,6 @@ def null_height_m(state: PendulumState) -> float:
     return -2.0 * state.inertia_kg_m2 * state.g_m_s2 * state.period_slope_torque / state.period_s
 
 
-def _rate(state: PendulumState) -> float:
-    """The rate (against the target, or against the state's own period when none)."""
-    return state.rate_s_per_day if state.rate_s_per_day is not None else 0.0
-
-
 def _nut_bodies(design: Design, state: PendulumState) -> list[Body]:
     """The bodies a rating nut under the main bob carries: a sleeve and its bob, or the bob."""
     main = state.main_bob()
@@ -120,7 +116,7 @@ def _centred(design: Design, state: PendulumState, key: str, value: float, step:
     # Against the state's own period when there is no target: a clock's change of rate.
     target = state.target_period_s or state.period_s
     lo_t, hi_t = _period_with(design, key, lo), _period_with(design, key, hi)
-    return 86400.0 * (target / hi_t - target / lo_t)
+    return SECONDS_PER_DAY * (target / hi_t - target / lo_t)
 
 
 def sensitivities(design: Design, state: PendulumState, trim_height_m: float | None = None
@@ -232,8 +228,8 @@ def rate_budget(design: Design, state: PendulumState,
     amp = design.swing.amplitude_deg
 
     def line(cause: str, unit: str, key: str, low: float, high: float) -> BudgetLine:
-        r_lo = 86400.0 * (target / _period_with(design, key, low) - 1.0)
-        r_hi = 86400.0 * (target / _period_with(design, key, high) - 1.0)
+        r_lo = SECONDS_PER_DAY * (target / _period_with(design, key, low) - 1.0)
+        r_hi = SECONDS_PER_DAY * (target / _period_with(design, key, high) - 1.0)
         return BudgetLine(cause, unit, low, high, r_lo, r_hi)
 
     t, p = site.temperature_c, site.pressure_hpa

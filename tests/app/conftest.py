@@ -10,9 +10,9 @@ from __future__ import annotations
 import os
 import shutil
 import sys
+from collections.abc import Iterator
 from pathlib import Path
 from types import TracebackType
-from typing import Iterator
 
 import pytest
 from PySide6.QtCore import QSettings
@@ -40,7 +40,7 @@ def private_settings(tmp_path_factory: pytest.TempPathFactory) -> Path:
 @pytest.fixture(scope="session", autouse=True)
 def private_data_folder(tmp_path_factory: pytest.TempPathFactory) -> Iterator[Path]:
     """Point the application's data folder (autosaves, recovery) at a temporary folder."""
-    from app.recovery import DATA_DIR_ENV
+    from app.document.recovery import DATA_DIR_ENV
 
     folder = tmp_path_factory.mktemp("data")
     previous = os.environ.get(DATA_DIR_ENV)
@@ -83,8 +83,8 @@ def example_copy(tmp_path: Path) -> Path:
 @pytest.fixture
 def window(qtbot, example_copy: Path, monkeypatch: pytest.MonkeyPatch):  # type: ignore[no-untyped-def]
     """The main window on a copy of the example, computed, with the discard prompt bypassed."""
-    from app.main_window import MainWindow
-    from app.settings import app_settings
+    from app.document.settings import app_settings
+    from app.window.main_window import MainWindow
     from core import load_design
 
     app_settings().clear()  # each window starts from the defaults

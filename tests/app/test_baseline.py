@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import pytest
 
-from app.main_window import MainWindow
+from app.window.main_window import MainWindow
 from core import analyse, with_value
 
 

@@ -9,10 +9,15 @@ from pathlib import Path
 import numpy as np
 import pytest
 
+from app.report.csv_data import (
+    MOTION_COLUMNS,
+    PARTS_COLUMNS,
+    PERIOD_CURVE_COLUMNS,
+    write_motion_csv,
+    write_parts_csv,
+    write_period_curve_csv,
+)
 from core import analyse, load_design
-
-from app.data_export import (MOTION_COLUMNS, PARTS_COLUMNS, PERIOD_CURVE_COLUMNS,
-                             write_motion_csv, write_parts_csv, write_period_curve_csv)
 
 EXAMPLES = Path(__file__).resolve().parents[2] / "resources" / "examples"
 
@@ -69,7 +74,7 @@ def test_parts_csv(tmp_path, atrium):
     header, rows = _read(path)
     assert tuple(header) == PARTS_COLUMNS
     assert [r[0] for r in rows] == ["wire", "sphere"]
-    sphere = dict(zip(header, rows[1]))
+    sphere = dict(zip(header, rows[1], strict=True))
     assert sphere["shape"] == "sphere" and sphere["material"] == "brass"
     # Brass sphere of 0.32 m, density 8500 kg/m³: 4/3 π 0.16³ · 8500 = 145.84 kg.
     assert float(sphere["mass_kg"]) == pytest.approx(4 / 3 * math.pi * 0.16**3 * 8500, rel=1e-3)

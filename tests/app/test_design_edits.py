@@ -6,10 +6,11 @@ from pathlib import Path
 
 import pytest
 
-from app import design_edits as edits
+from app.form import design_edits as edits
 from core import DesignError, load_design
 
-EXAMPLE = Path(__file__).resolve().parents[2] / "resources/examples/workshop_regulator.pendulum.json"
+EXAMPLE = (Path(__file__).resolve().parents[2]
+           / "resources/examples/workshop_regulator.pendulum.json")
 
 
 @pytest.fixture

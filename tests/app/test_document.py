@@ -6,7 +6,7 @@ from pathlib import Path
 
 import pytest
 
-from app.document import Document, blank_design
+from app.document.document import Document, blank_design
 from core import DesignError, load_design, with_value
 
 

@@ -15,10 +15,9 @@ os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
 import pytest
 from PySide6 import QtGui
 
-from core import DesignError
-
 from app.cli import main
-from app.export import PLOT_SIZE_PX, export_all
+from app.report.export import PLOT_SIZE_PX, export_all
+from core import DesignError
 
 ROOT = Path(__file__).resolve().parents[2]
 ATRIUM = ROOT / "resources" / "examples" / "atrium_pendulum.pendulum.json"

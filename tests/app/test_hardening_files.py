@@ -13,8 +13,9 @@ import errno
 import os
 import random
 import stat
+from collections.abc import Callable
 from pathlib import Path
-from typing import Any, Callable
+from typing import Any
 
 import pytest
 from PySide6.QtCore import QMimeData, QPointF, Qt, QUrl
@@ -23,8 +24,8 @@ from PySide6.QtWidgets import QMessageBox
 
 import core.fileformat as fileformat
 from app.cli import main
-from app.document import read_design_file
-from app.main_window import MainWindow
+from app.document.document import read_design_file
+from app.window.main_window import MainWindow
 from core import DesignError, load_design, with_value
 from core.fileformat import MAX_FILE_BYTES
 
@@ -48,7 +49,7 @@ BROKEN_BYTES: dict[str, tuple[bytes, str, str]] = {
                 "is not UTF-8 text"),
     "another format": (EXAMPLE_TEXT.replace('"penduline-design"', '"other"').encode(),
                        "format", "is not a Penduline design"),
-    "newer version": (EXAMPLE_TEXT.replace('"version": 1', '"version": 7').encode(),
+    "newer version": (EXAMPLE_TEXT.replace('"version": 2', '"version": 7').encode(),
                       "version", "version 7 is newer"),
     "100 kB of nested arrays": (b"[" * 50_000 + b"]" * 50_000, "file", "nested too deeply"),
     "100 kB of nested objects": (b'{"a":' * 16_666 + b"1" + b"}" * 16_666, "file",
@@ -192,13 +193,13 @@ class TestOpeningBrokenFiles:
     def test_the_message_box_is_shown_and_names_the_field(self, edited: MainWindow,
                                                           tmp_path: Path) -> None:
         path = tmp_path / "v9.pendulum.json"
-        path.write_text(EXAMPLE_TEXT.replace('"version": 1', '"version": 9'), encoding="utf-8")
+        path.write_text(EXAMPLE_TEXT.replace('"version": 2', '"version": 9'), encoding="utf-8")
         assert not edited.open_file(path)
         boxes = [b for b in edited.findChildren(QMessageBox) if b.isVisible()]
         assert len(boxes) == 1
         assert boxes[0].windowTitle() == "Cannot open design"
-        assert boxes[0].text() == (f"v9.pendulum.json: version: version 9 is newer than this "
-                                   "Penduline reads (up to 1); update Penduline")
+        assert boxes[0].text() == ("v9.pendulum.json: version: version 9 is newer than this "
+                                   "Penduline reads (up to 2); update Penduline")
         assert edited.last_message == boxes[0].text()
         boxes[0].close()
 
@@ -273,7 +274,7 @@ def _disk_full(monkeypatch: pytest.MonkeyPatch) -> None:
         def __getattr__(self, name: str) -> Any:
             return getattr(self._fh, name)
 
-        def __enter__(self) -> "Full":
+        def __enter__(self) -> Full:
             return self
 
         def __exit__(self, *exc: object) -> None:

@@ -28,20 +28,21 @@ import string
 import sys
 import unicodedata
 from collections import Counter
+from collections.abc import Callable
 from pathlib import Path
 from types import TracebackType
-from typing import Any, Callable
+from typing import Any
 
 import pytest
 from PySide6.QtCore import QEvent, Qt
 from PySide6.QtGui import QKeyEvent
 from PySide6.QtWidgets import QApplication, QLineEdit, QWidget
 
-from app.field_rows import ChoiceRow, NumberRow, TextRow
-from app.main_window import MainWindow, example_files
-from app.number_field import NumberField
-from app.readout_format import format_value
-from app.units import UnitSystem
+from app.form.field_rows import ChoiceRow, NumberRow, TextRow
+from app.form.number_field import NumberField
+from app.form.units import UnitSystem
+from app.readout.readout_format import format_value
+from app.window.main_window import MainWindow, example_files
 from core import Design, DesignError, analyse, design_from_dict, design_to_dict, load_design
 from core.fileformat import get_value
 
@@ -338,6 +339,7 @@ def campaign(window: MainWindow, qtbot, tmp_path: Path,  # type: ignore[no-untyp
     return run
 
 
+@pytest.mark.slow
 def test_garbage_campaign(campaign: Campaign, record_property: Callable[[str, Any], None]
                           ) -> None:
     c, w = campaign, campaign.w

@@ -14,11 +14,11 @@ from PySide6.QtCore import QMimeData, QPointF, Qt, QUrl
 from PySide6.QtGui import QDropEvent, QImage
 from PySide6.QtWidgets import QApplication
 
-from app.main_window import MainWindow
-from app.number_field import NumberField
-from app.readout_format import format_value
-from app.settings import app_settings, recent_files
-from app.units import UnitSystem
+from app.document.settings import app_settings, recent_files
+from app.form.number_field import NumberField
+from app.form.units import UnitSystem
+from app.readout.readout_format import format_value
+from app.window.main_window import MainWindow
 from core import analyse, load_design, with_value
 from core.tuning import BudgetRanges
 

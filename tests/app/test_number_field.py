@@ -9,8 +9,8 @@ from PySide6.QtCore import QEvent, Qt
 from PySide6.QtGui import QFocusEvent
 from PySide6.QtWidgets import QApplication
 
-from app.number_field import NumberField, NumberTextError, format_number, parse_number
-from app.units import UnitSystem, field_unit
+from app.form.number_field import NumberField, NumberTextError, format_number, parse_number
+from app.form.units import UnitSystem, field_unit
 
 
 class TestParseNumber:

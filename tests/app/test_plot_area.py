@@ -6,7 +6,7 @@ from __future__ import annotations
 import pytest
 from PySide6.QtWidgets import QWidget
 
-from app.plot_area import GRID_PAGE_TITLE, PlotArea
+from app.views.plot_area import GRID_PAGE_TITLE, PlotArea
 
 
 class _Plot(QWidget):

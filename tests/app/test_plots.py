@@ -13,11 +13,16 @@ from PySide6.QtGui import QImage
 from PySide6.QtWidgets import QLabel
 
 from app import theme
-from app.plots import (PLOT_CLASSES, SMALL_PANE_TICK_DENSITY, MotionPlot, PeriodCurvePlot,
-                       PhasePlot, export_plot)
+from app.views.catalogue import PLOT_CLASSES
+from app.views.chart import SMALL_PANE_TICK_DENSITY
+from app.views.motion import MotionPlot
+from app.views.period_curve import PeriodCurvePlot
+from app.views.phase import PhasePlot
+from app.views.plot_export import export_plot
 from core import analyse, load_design, with_value
 
-EXAMPLE = Path(__file__).resolve().parents[2] / "resources/examples/workshop_regulator.pendulum.json"
+EXAMPLE = (Path(__file__).resolve().parents[2]
+           / "resources/examples/workshop_regulator.pendulum.json")
 
 
 def _laid_out(widget, width: int, height: int):  # type: ignore[no-untyped-def]

@@ -13,13 +13,18 @@ import numpy as np
 import pytest
 from PySide6 import QtCore
 
+from app import theme
+from app.views.swing_preview import (
+    CAUTION_MARGIN_PX,
+    SPEEDS,
+    SwingPreview,
+    SwingPreviewControls,
+    deepest_point_m,
+    outlines_from_bodies,
+)
 from core import analyse, design_from_dict, load_design, with_value
 from core.analysis import LOAD_CAUTION
 from core.fileformat import design_to_dict
-
-from app import theme
-from app.preview import (CAUTION_MARGIN_PX, SPEEDS, SwingPreview, SwingPreviewControls,
-                         deepest_point_m, outlines_from_bodies)
 
 EXAMPLES = Path(__file__).resolve().parents[2] / "resources" / "examples"
 
@@ -296,6 +301,14 @@ def exact_angle(result, swing_time_s: float) -> float:
     return float(np.interp(math.fmod(swing_time_s, result.period_s), m.time_s, m.angle_rad))
 
 
+@pytest.fixture(scope="module")
+def undamped(regulator):  # type: ignore[no-untyped-def]
+    """The regulator without damping: its motion repeats every period."""
+    result = analyse(with_value(regulator.design, "swing.quality_factor", None))
+    assert result.period_s == pytest.approx(2.0, abs=1e-3)  # a seconds pendulum
+    return result
+
+
 class TestTrueSpeed:
     """The animation clock runs at true speed: the pose drawn after t seconds of (fake) wall
     time is the exact pose at speed × t, however the frames fall."""
@@ -311,12 +324,6 @@ class TestTrueSpeed:
         view.resize(800, 520)
         yield view
         view.set_playing(False)
-
-    @pytest.fixture(scope="class")
-    def undamped(self, regulator):
-        result = analyse(with_value(regulator.design, "swing.quality_factor", None))
-        assert result.period_s == pytest.approx(2.0, abs=1e-3)  # a seconds pendulum
-        return result
 
     @pytest.mark.parametrize("speed", [1.0, 0.5])
     @pytest.mark.parametrize("wall_s", [0.37, 1.0, 2.9, 61.3])

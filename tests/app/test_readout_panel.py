@@ -8,13 +8,14 @@ from pathlib import Path
 import pytest
 from PySide6.QtCore import Qt
 
-from app.readout_format import DESCRIPTIONS, SECTIONS
-from app.readout_panel import BUDGET_RANGES, LABEL_PADDING_PX, ReadoutPanel
-from app.units import UnitSystem
+from app.form.units import UnitSystem
+from app.readout.readout_format import DESCRIPTIONS, SECTIONS
+from app.readout.readout_panel import BUDGET_RANGES, LABEL_PADDING_PX, ReadoutPanel
 from core import analyse, load_design, with_value
 from core.tuning import BudgetRanges
 
-EXAMPLE = Path(__file__).resolve().parents[2] / "resources/examples/workshop_regulator.pendulum.json"
+EXAMPLE = (Path(__file__).resolve().parents[2]
+           / "resources/examples/workshop_regulator.pendulum.json")
 
 
 @pytest.fixture(scope="module")

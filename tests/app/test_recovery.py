@@ -13,16 +13,22 @@ import json
 import os
 import subprocess
 import sys
+from collections.abc import Iterator
 from pathlib import Path
-from typing import Any, Iterator
+from typing import Any
 
 import pytest
 
-from app import recovery
-from app.document import Document
-from app.main_window import MainWindow
-from app.recovery import (AUTOSAVE_INTERVAL_S, DATA_DIR_ENV, Autosaver, find_orphans,
-                          recovery_folder)
+from app.document import recovery
+from app.document.document import Document
+from app.document.recovery import (
+    AUTOSAVE_INTERVAL_S,
+    DATA_DIR_ENV,
+    Autosaver,
+    find_orphans,
+    recovery_folder,
+)
+from app.window.main_window import MainWindow
 from core import Design, load_design, with_value
 
 ROOT = Path(__file__).resolve().parents[2]
@@ -245,8 +251,8 @@ class TestRecovery:
         code = (
             "import os, sys\n"
             "from PySide6.QtCore import QCoreApplication\n"
-            "from app.document import Document\n"
-            "from app.recovery import Autosaver\n"
+            "from app.document.document import Document\n"
+            "from app.document.recovery import Autosaver\n"
             "from core import load_design, with_value\n"
             "app = QCoreApplication([])\n"
             "path = sys.argv[1]\n"

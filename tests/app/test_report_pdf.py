@@ -16,12 +16,11 @@ os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
 import pytest
 from PySide6 import QtCore, QtGui
 
+from app.readout.readout_format import SECTIONS
+from app.report.pdf import field_label, report_html, widget_image, write_report_pdf
+from app.views.swing_preview import SwingPreview
 from core import analyse, load_design
 from core.analysis import LOAD_CAUTION, SPRING_CAUTION
-
-from app.preview import SwingPreview
-from app.readout_format import SECTIONS
-from app.report_pdf import field_label, report_html, widget_image, write_report_pdf
 
 EXAMPLES = Path(__file__).resolve().parents[2] / "resources" / "examples"
 A4_RATIO = 297.0 / 210.0
@@ -61,10 +60,10 @@ class TestContents:
                        "Air pressure", "Semi-arc", "Exhibit figures", "Warnings",
                        "hangs from the rod's end"):
             assert needle in text, needle
-        for section, rows in SECTIONS:
+        for _section, rows in SECTIONS:
             for _key, label, _unit, _fmt in rows:
                 assert label in text, label
-        # Figures as the readout formats them (app.readout_format).
+        # Figures as the readout formats them (app.readout.readout_format).
         assert "1442.45" in text            # peak pivot load, N
         assert "0.8151" in text             # bob peak speed, m/s
         assert "32.568" in text             # Foucault full turn, h

@@ -9,8 +9,8 @@ import numpy as np
 import pytest
 from PySide6.QtCore import Qt
 
-import app.sweep_plot as sweep_module
-from app.sweep_plot import SWEEP_POINTS, SweepPlot, sweep_fields
+import app.views.sweep as sweep_module
+from app.views.sweep import SWEEP_POINTS, SweepPlot, sweep_fields
 from core import analyse, load_design, with_value
 from core.solve import sweep_field
 

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import pytest
 
-from app.units import UnitSystem, field_unit, readout_unit
+from app.form.units import UnitSystem, field_unit, readout_unit
 
 
 @pytest.mark.parametrize("path, si, shown, unit", [

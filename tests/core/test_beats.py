@@ -10,8 +10,15 @@ import pytest
 from scipy.io import wavfile
 
 from core import DesignError
-from core.beats import (BEATS_REPORT_KEYS, analyse_detection, analyse_recording, analyse_ticks,
-                        beats_text, fit_beats, tick_waveform)
+from core.beats import (
+    BEATS_REPORT_KEYS,
+    analyse_detection,
+    analyse_recording,
+    analyse_ticks,
+    beats_text,
+    fit_beats,
+    tick_waveform,
+)
 from core.synthetic_ticks import TickSignalSpec, render, true_tick_times, write_wav
 from core.ticks import TickDetection
 

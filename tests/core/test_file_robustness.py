@@ -16,8 +16,9 @@ import random
 import subprocess
 import sys
 import tempfile
+from collections.abc import Callable
 from pathlib import Path
-from typing import Any, Callable
+from typing import Any
 
 import pytest
 
@@ -62,9 +63,9 @@ BROKEN_BYTES: dict[str, tuple[bytes, str, str]] = {
                        "format", "'clock-design' is not a Penduline design"),
     "no format": (EXAMPLE_TEXT.replace('"format": "penduline-design",', "").encode(),
                   "format", "is missing"),
-    "newer version": (EXAMPLE_TEXT.replace('"version": 1', '"version": 2').encode(),
-                      "version", "version 2 is newer than this Penduline reads"),
-    "version as text": (EXAMPLE_TEXT.replace('"version": 1', '"version": "1"').encode(),
+    "newer version": (EXAMPLE_TEXT.replace('"version": 2', '"version": 3').encode(),
+                      "version", "version 3 is newer than this Penduline reads"),
+    "version as text": (EXAMPLE_TEXT.replace('"version": 2', '"version": "2"').encode(),
                         "version", "must be a whole number"),
     "100 kB of nested arrays": (_nested("[", "]"), "file", "nested too deeply"),
     "100 kB of nested objects": (_nested('{"a":', "}", "1"), "file", "nested too deeply"),
@@ -279,7 +280,7 @@ def _fail_write_after(monkeypatch: pytest.MonkeyPatch, code: int, keep: int) -> 
         def __getattr__(self, name: str) -> Any:
             return getattr(self._fh, name)
 
-        def __enter__(self) -> "Failing":
+        def __enter__(self) -> Failing:
             return self
 
         def __exit__(self, *exc: object) -> None:

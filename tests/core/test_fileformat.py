@@ -16,13 +16,24 @@ import glob
 import json
 import math
 import os
+from collections.abc import Iterator
 from pathlib import Path
-from typing import Any, Iterator
+from typing import Any
 
 import pytest
 
-from core import (Design, DesignError, analyse, design_from_dict, design_to_dict, dumps_design,
-                  load_design, loads_design, save_design, with_value)
+from core import (
+    Design,
+    DesignError,
+    analyse,
+    design_from_dict,
+    design_to_dict,
+    dumps_design,
+    load_design,
+    loads_design,
+    save_design,
+    with_value,
+)
 
 ROOT = Path(__file__).resolve().parents[2]
 EXAMPLES = sorted(glob.glob(str(ROOT / "resources" / "examples" / "*.pendulum.json")))
@@ -346,13 +357,20 @@ class TestDesignFromDict:
     def test_another_format(self, value: Any) -> None:
         assert refused(put(base(), "format", value)).field == "format"
 
-    @pytest.mark.parametrize("value", [2, 99, 10**30, 0, -1, "1", 1.0, True, None, math.nan, []])
+    @pytest.mark.parametrize("value", [3, 99, 10**30, 0, -1, "1", 1.5, True, None, math.nan, []])
     def test_bad_version(self, value: Any) -> None:
         err = refused(put(base(), "version", value))
         assert err.field == "version"
 
     def test_newer_version_message(self) -> None:
-        assert "newer" in refused(put(base(), "version", 2)).reason
+        assert "newer" in refused(put(base(), "version", 3)).reason
+
+    def test_a_whole_version_written_with_a_decimal_point_is_read(self) -> None:
+        assert design_from_dict(put(base(), "version", 1.0)) == design_from_dict(base())
+
+    def test_a_fractional_version_is_refused_in_a_sentence(self) -> None:
+        reason = refused(put(base(), "version", 1.5)).reason
+        assert reason == "must be a whole number such as 2, not 1.5"
 
     def test_deep_nesting(self) -> None:
         # A value nested thousands of levels deep, where a number or an object is expected.

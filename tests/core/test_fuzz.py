@@ -81,7 +81,8 @@ def designs(draw: st.DrawFn) -> dict[str, Any]:
             if sleeve_name is not None and b == 0 and draw(st.booleans()):
                 mount: dict[str, Any] = {"kind": "on_sleeve", "on": sleeve_name}
             else:
-                centre = draw(st.one_of(fraction.map(lambda u: top + u * length),
+                on_rod = fraction.map(lambda u, top=top, length=length: top + u * length)
+                centre = draw(st.one_of(on_rod,
                                         number(-0.5, 3.0, (-1000.0, 1000.0))))
                 mount = {"kind": "clamp", "on": rod_name, "centre_m": centre}
             bob: dict[str, Any] = {"kind": "bob", "name": f"bob{r}{b}", "shape": shape,
@@ -96,7 +97,8 @@ def designs(draw: st.DrawFn) -> dict[str, Any]:
         for w in range(draw(st.integers(0, 1))):
             parts.append({"kind": "weight", "name": f"w{r}{w}",
                           "mass_kg": draw(number(1e-3, 1.0, (1e-6, 1e6))),
-                          "at_m": draw(fraction.map(lambda u: top + u * length)),
+                          "at_m": draw(fraction.map(
+                              lambda u, top=top, length=length: top + u * length)),
                           "on": rod_name})
     spring = draw(st.booleans())
     d: dict[str, Any] = {
@@ -118,10 +120,41 @@ def designs(draw: st.DrawFn) -> dict[str, Any]:
         "rating_nut": {"pitch_m": draw(st.one_of(st.none(), number(1e-4, 0.1)))},
     }
     if draw(st.booleans()):
+        format2(d, draw)
+    if draw(st.booleans()):
         kinds = draw(st.lists(st.sampled_from(MUTATIONS), min_size=1, max_size=3))
         for kind in sorted(kinds, key=lambda k: k == "nest"):  # nesting last: it makes d deep
             mutate(d, kind, draw)
     return d
+
+
+def format2(d: dict[str, Any], draw: st.DrawFn) -> None:
+    """Turn ``d`` into a version 2 file with some of DESIGN §8's data (in place)."""
+    d["version"] = 2
+    d["purpose"] = draw(st.sampled_from(["clock", "exhibit"]))
+    if draw(st.booleans()):
+        d["exhibit"] = {"pivot_above_floor_m": draw(number(0.5, 30.0, (1e-9, 1000.0))),
+                        "barrier_radius_m": draw(st.one_of(st.none(), number(0.1, 10.0)))}
+    if draw(st.booleans()):
+        d["materials"] = {"zinc": {"name": "Zinc", "density_kg_m3": draw(number(10.0, 25000.0)),
+                                   "expansion_per_k": draw(number(-5e-5, 5e-4)),
+                                   "youngs_modulus_pa": draw(number(1e6, 1.2e12)),
+                                   "source": "invented"}}
+        d["parts"][0]["material"] = "zinc"
+    if d["suspension"]["kind"] == "spring" and draw(st.booleans()):
+        d["suspension"] = {"kind": "spring", "stiffness_n_m_per_rad": None, "blades": {
+            "count": draw(st.integers(1, 8)), "material": "steel",
+            "width_m": draw(number(1e-4, 0.2)), "thickness_m": draw(number(1e-6, 0.005)),
+            "free_length_m": draw(number(1e-4, 0.1))}}
+    rods = [p for p in d["parts"] if p["kind"] == "rod"]
+    if len(rods) > 1 and draw(st.booleans()):
+        del rods[1]["top_m"]
+        rods[1]["hangs_from"] = {"part": draw(st.sampled_from([p["name"] for p in d["parts"]])),
+                                 "end": draw(st.sampled_from(["lower", "upper"]))}
+    for p in d["parts"]:
+        if p["kind"] == "bob" and draw(st.booleans()):
+            p["support"] = draw(st.sampled_from(["bottom", "centre"]))
+            p["hole_diameter_m"] = draw(st.one_of(st.none(), number(1e-3, 0.05)))
 
 
 MUTATIONS = ["hostile", "delete", "unknown", "dangling", "duplicate", "nest", "container",
@@ -272,6 +305,7 @@ def exercise(d: Any, counts: Counter[str]) -> None:
 
 
 class TestFuzzAnalyse:
+    @pytest.mark.slow
     def test_only_design_error_escapes(self, record_property: Any) -> None:
         counts: Counter[str] = Counter()
         started = time.monotonic()

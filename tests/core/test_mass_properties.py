@@ -10,8 +10,9 @@ swing). Geometry of each part as DESIGN §3 describes it.
 from __future__ import annotations
 
 import math
+from collections.abc import Callable
 from fractions import Fraction
-from typing import Any, Callable
+from typing import Any
 
 import pytest
 from scipy.integrate import tplquad

@@ -16,7 +16,8 @@ def test_core_imports_without_qt() -> None:
         "            raise ImportError('Qt is forbidden in core: ' + name)\n"
         "sys.meta_path.insert(0, Block())\n"
         "import core, core.solve, core.tuning, core.exhibit, core.motion, core.phase\n"
-        "r = core.analyse(core.load_design('resources/examples/workshop_regulator.pendulum.json'))\n"
+        "r = core.analyse(core.load_design("
+        "'resources/examples/workshop_regulator.pendulum.json'))\n"
         "assert r.period_s > 0\n"
         "print(sorted(m for m in sys.modules if m.split('.')[0] in ('PySide6', 'pyqtgraph')))\n"
     )

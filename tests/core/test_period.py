@@ -59,7 +59,7 @@ class TestAgm:
         # AGM of arrays, element by element — mpmath.agm at 40 digits.
         a = np.array([1.0, 2.0, 1e-3, 5.0])
         b = np.array([1e-8, 3.0, 1e3, 5.0])
-        expected = [float(mpmath.agm(x, y)) for x, y in zip(a, b)]
+        expected = [float(mpmath.agm(x, y)) for x, y in zip(a, b, strict=True)]
         np.testing.assert_allclose(agm(a, b), expected, rtol=2e-15, atol=0)
 
 
@@ -178,7 +178,8 @@ class TestPeriodExactAndSlopes:
         h = mpmath.mpf("1e-12")
         d_torque = (mp_period(inertia, torque + h, k, th)
                     - mp_period(inertia, torque - h, k, th)) / (2 * h)
-        d_k = (mp_period(inertia, torque, k + h, th) - mp_period(inertia, torque, k - h, th)) / (2 * h)
+        d_k = (mp_period(inertia, torque, k + h, th)
+               - mp_period(inertia, torque, k - h, th)) / (2 * h)
         t, s_torque, s_k = period_exact_and_slopes(inertia, torque, k, [np.radians(deg)])
         assert float(t[0]) == pytest.approx(float(mp_period(inertia, torque, k, th)),
                                             rel=1e-12, abs=0)

@@ -14,9 +14,10 @@ from typing import Any
 
 import pytest
 
-from _core_builders import DESIGN_KEYS
 from app.cli import main
 from core import analyse, load_design
+
+from _core_builders import DESIGN_KEYS
 
 ROOT = Path(__file__).resolve().parents[2]
 EXAMPLE = ROOT / "resources" / "examples" / "workshop_regulator.pendulum.json"
@@ -115,7 +116,7 @@ class TestBudgetAndTrimOptions:
                        budget_ranges=BudgetRanges(temperature_k=10.0, arc_deg=0.2))
         lines = {line["cause"]: line for line in got["rate_budget"]}
         assert lines["Temperature"]["low"] == pytest.approx(10.0)  # 20 °C − 10 K
-        for line, expected in zip(got["rate_budget"], want.budget.lines):
+        for line, expected in zip(got["rate_budget"], want.budget.lines, strict=True):
             assert line["spread_s_per_day"] == expected.spread_s_per_day
         assert got["trim_height_m"] == 0.3
         assert got["trim_s_per_day_per_g"] == want.sensitivities.trim_s_per_day_per_g

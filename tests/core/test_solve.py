@@ -13,8 +13,15 @@ from pathlib import Path
 import numpy as np
 import pytest
 
-from core import (Design, DesignError, analyse, design_from_dict, design_to_dict,
-                  load_design, with_value)
+from core import (
+    Design,
+    DesignError,
+    analyse,
+    design_from_dict,
+    design_to_dict,
+    load_design,
+    with_value,
+)
 from core.fileformat import get_value
 from core.solve import solve_field, sweep_field
 

@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from functools import lru_cache
+from functools import cache
 
 import numpy as np
 import pytest
@@ -18,7 +18,7 @@ HARD = TickSignalSpec(rate_hz=16000, duration_s=30.0, asymmetry_s=0.004, dropped
                       clicks_s=(17.37,), seed=7)
 
 
-@lru_cache(maxsize=None)
+@cache
 def _detect(spec: TickSignalSpec) -> TickDetection:
     return detect_ticks(ArraySource(render(spec), spec.rate_hz))
 
@@ -26,9 +26,10 @@ def _detect(spec: TickSignalSpec) -> TickDetection:
 def _errors(spec: TickSignalSpec, det: TickDetection) -> np.ndarray:
     """Detected minus true time for each detected tick, matched by beat number."""
     index, times = true_tick_times(spec)
-    truth = dict(zip(index.tolist(), times.tolist()))
+    truth = dict(zip(index.tolist(), times.tolist(), strict=True))
     offset = int(index[0] - det.index[0])
-    return np.array([t - truth[int(i) + offset] for i, t in zip(det.index, det.times_s)])
+    pairs = zip(det.index, det.times_s, strict=True)
+    return np.array([t - truth[int(i) + offset] for i, t in pairs])
 
 
 class TestTiming:

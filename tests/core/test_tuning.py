@@ -20,8 +20,17 @@ from core import Design, analyse, design_from_dict, load_design, with_value
 from core.materials import MATERIALS
 from core.solve import solve_field
 
-from _core_builders import (LIGHT_KG, bob, clamp, design, on_sleeve, point_pendulum, rod,
-                            sleeve, weight)
+from _core_builders import (
+    LIGHT_KG,
+    bob,
+    clamp,
+    design,
+    on_sleeve,
+    point_pendulum,
+    rod,
+    sleeve,
+    weight,
+)
 
 EXAMPLE = str(Path(__file__).resolve().parents[2] / "resources" / "examples"
               / "workshop_regulator.pendulum.json")
@@ -73,7 +82,8 @@ class TestTemperatureCoefficient:
         d = make()
         d = with_value(d, "site.temperature_c", 20.0)
         coefficient = analyse(d).temperature_coefficient_s_per_day_per_k
-        difference = (rate(d, "site.temperature_c", 25.0) - rate(d, "site.temperature_c", 15.0)) / 10
+        difference = (rate(d, "site.temperature_c", 25.0)
+                      - rate(d, "site.temperature_c", 15.0)) / 10
         assert coefficient == pytest.approx(difference, rel=2e-3)
 
 
@@ -124,7 +134,7 @@ class TestTrimWeight:
     # DOMAIN §3 compound example (vacuum, g_n): L_eq = I/(M h) = 0.9409313725 m, from exact
     # fractions here. DOMAIN §1: a small mass at the centre of oscillation changes nothing;
     # above it the clock gains, below it loses.
-    I = Fraction(1, 4) / 3 + 3 * (Fraction(75, 1000) ** 2 / 2 + Fraction(95, 100) ** 2)
+    INERTIA = Fraction(1, 4) / 3 + 3 * (Fraction(75, 1000) ** 2 / 2 + Fraction(95, 100) ** 2)
     MH = Fraction(1, 4) / 2 + 3 * Fraction(95, 100)
 
     def _parts(self) -> list[dict[str, Any]]:
@@ -136,7 +146,7 @@ class TestTrimWeight:
         return analyse(design_from_dict(design(self._parts() + extra))).period_s
 
     def test_null_at_centre_of_oscillation(self) -> None:
-        l_eq = float(self.I / self.MH)
+        l_eq = float(self.INERTIA / self.MH)
         assert l_eq == pytest.approx(0.9409313725, abs=6e-11)  # DOMAIN §3
         base = self._period([])
         with_trim = self._period([weight(mass_kg=0.01, at_m=l_eq)])
@@ -153,7 +163,7 @@ class TestTrimWeight:
         dm = 0.01
         base = self._period([])
         got = self._period([weight(mass_kg=dm, at_m=z)])
-        i, mh = float(self.I), float(self.MH)
+        i, mh = float(self.INERTIA), float(self.MH)
         expected = math.sqrt((i + dm * z * z) / i * mh / (mh + dm * z))
         assert got / base == pytest.approx(expected, rel=1e-12)
         l_eq = i / mh
@@ -163,7 +173,7 @@ class TestTrimWeight:
         # 1 g at 0.6 m, to first order in the added mass (the readout's figure): from the exact
         # model above, d ln T/dm = ½(z²/I − z/(M h)), and rate = 86400(T_target/T − 1). An
         # actual 1 g differs from this by ~2e-4 relative (second order), checked as well.
-        i, mh, z = float(self.I), float(self.MH), 0.6
+        i, mh, z = float(self.INERTIA), float(self.MH), 0.6
         r = analyse(design_from_dict(design(self._parts(), period_s=2.0)), trim_height_m=z)
         first_order = -86400.0 * 2.0 / r.period_s * 0.5 * (z * z / i - z / mh) * 1e-3
         assert r.sensitivities.trim_s_per_day_per_g == pytest.approx(first_order, rel=1e-9)
@@ -217,7 +227,7 @@ class TestRateBudget:
         ]
         lines = r.budget.lines
         assert [line.cause for line in lines] == ["Temperature", "Air pressure", "Semi-arc"]
-        for line, (lo, hi) in zip(lines, expected):
+        for line, (lo, hi) in zip(lines, expected, strict=True):
             assert line.rate_at_low_s_per_day == pytest.approx(lo, rel=1e-9, abs=1e-9)
             assert line.rate_at_high_s_per_day == pytest.approx(hi, rel=1e-9, abs=1e-9)
             assert line.spread_s_per_day == pytest.approx(hi - lo, rel=1e-7, abs=1e-9)

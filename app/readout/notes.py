@@ -1,0 +1,55 @@
+"""The readout's notes: the result's warnings and safety cautions, each in its own box."""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+
+from PySide6.QtCore import Qt
+from PySide6.QtWidgets import QFrame, QLabel, QScrollArea, QVBoxLayout, QWidget
+
+from app.readout.cells import bullets
+
+__all__ = ["NotesPane"]
+
+
+class NotesPane(QScrollArea):
+    """Warnings and cautions of the latest result; a box is hidden when it has none."""
+
+    def __init__(self, parent: QWidget | None = None) -> None:
+        super().__init__(parent)
+        self.setWidgetResizable(True)
+        self.setFrameShape(QFrame.Shape.NoFrame)
+        body = QWidget()
+        self.notes_layout = QVBoxLayout(body)
+        self.notes_layout.setContentsMargins(0, 0, 4, 0)
+        self.notes_layout.setSpacing(6)
+        self.warning_box, self.warning_text = _note_box("Warning", "Warnings")
+        self.caution_box, self.caution_text = _note_box("Caution", "Safety cautions")
+        self.notes_layout.addWidget(self.warning_box)
+        self.notes_layout.addWidget(self.caution_box)
+        self.notes_layout.addStretch(1)
+        self.setWidget(body)
+
+    def show_notes(self, warnings: Sequence[str], cautions: Sequence[str]) -> None:
+        """Show ``warnings`` and ``cautions`` as bullet lists."""
+        self.warning_box.setVisible(bool(warnings))
+        self.warning_text.setText(bullets(warnings))
+        self.caution_box.setVisible(bool(cautions))
+        self.caution_text.setText(bullets(cautions))
+
+
+def _note_box(name: str, heading: str) -> tuple[QFrame, QLabel]:
+    box = QFrame()
+    box.setObjectName(name)
+    inner = QVBoxLayout(box)
+    inner.setContentsMargins(10, 6, 8, 8)
+    inner.setSpacing(3)
+    title = QLabel(heading)
+    title.setObjectName("NoteHeading")
+    text = QLabel()
+    text.setWordWrap(True)
+    text.setTextFormat(Qt.TextFormat.RichText)
+    text.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
+    inner.addWidget(title)
+    inner.addWidget(text)
+    return box, text

@@ -1,0 +1,98 @@
+"""The motion view: angle against time from release at the working semi-arc."""
+
+from __future__ import annotations
+
+import numpy as np
+from PySide6.QtGui import QAction
+from PySide6.QtWidgets import QWidget
+
+from app import theme
+from app.views.axes import degrees
+from app.views.chart import ChartView, abs_max
+from core import Result
+
+__all__ = ["MotionPlot"]
+
+
+class MotionPlot(ChartView):
+    """Angle against time from release at the working semi-arc: exact and linearised, and
+    their difference on the right axis (can be hidden)."""
+
+    title = "Motion"
+    slug = "motion"
+    caption = ("Angle against time after release from rest at the working semi-arc: the "
+               "exact motion and the small-angle model, and their difference (right axis).")
+
+    def __init__(self, parent: QWidget | None = None) -> None:
+        super().__init__(parent)
+        item = self.getPlotItem()
+        item.setLabel("bottom", "Time (s)")
+        item.setLabel("left", "Angle (°)")
+        self.ghost = self._curve(theme.GHOST, 2.0, None, z=-10)
+        self.exact = self._curve(theme.EXACT, 2.0, "Exact", z=2)
+        self.linear = self._curve(theme.LINEAR, 1.5, "Small-angle model", z=1)
+        self.difference_view = self._right_view("Exact − small-angle (°)", theme.DIFFERENCE)
+        self.difference = self._curve(theme.DIFFERENCE, 1.0, "Exact − small-angle",
+                                      view=self.difference_view)
+        self._show_difference = True
+        # Framed from the data's own extent (cheaper than pyqtgraph's auto-range, which
+        # re-measures every curve on every update, and steady: the angle axis only moves
+        # when the semi-arc does).
+        item.vb.disableAutoRange()
+        self.difference_view.disableAutoRange()
+        action = QAction("Show difference (right axis)", item.vb.menu)
+        action.setCheckable(True)
+        action.setChecked(True)
+        action.toggled.connect(self.set_show_difference)
+        item.vb.menu.addAction(action)
+        self.difference_action = action
+
+    def set_show_difference(self, show: bool) -> None:
+        """Show or hide the exact − linearised curve and its right axis."""
+        self._show_difference = bool(show)
+        self.difference.setVisible(self._show_difference)
+        self.getPlotItem().showAxis("right", self._show_difference)
+        if self.difference_action.isChecked() != self._show_difference:
+            self.difference_action.setChecked(self._show_difference)
+
+    @property
+    def shows_difference(self) -> bool:
+        return self._show_difference
+
+    def show_result(self, result: Result, baseline: Result | None = None) -> None:
+        """Draw ``result.motion`` (angles in degrees against time in s)."""
+        self._result_arrived(result, baseline)
+        m = result.motion
+        t = np.asarray(m.time_s, dtype=float)
+        self.exact.setData(t, degrees(m.angle_rad))
+        self.linear.setData(t, degrees(m.linear_angle_rad))
+        self.difference.setData(t, degrees(m.difference_rad))
+        self._show_ghost(self.ghost, None if baseline is None else
+                   (baseline.motion.time_s, degrees(baseline.motion.angle_rad)))
+        if self.follows_result:
+            self._frame()
+        self._settle()
+
+    def _reframe(self) -> None:
+        if self._result is not None:
+            self._frame()
+            self._settle()
+
+    def _frame(self) -> None:
+        """The whole time span; angles symmetric about zero, with a little room."""
+        curves = [self.exact, self.linear] + ([self.ghost] if self._baseline is not None
+                                              else [])
+        spans = [(float(x[0]), float(x[-1]), abs_max(y)) for x, y in
+                 (c.getData() for c in curves) if x is not None and len(x) > 1]
+        if not spans:
+            return
+        t_lo, t_hi = min(s[0] for s in spans), max(s[1] for s in spans)
+        top = max(s[2] for s in spans)
+        vb = self.getPlotItem().vb
+        pad = 0.01 * (t_hi - t_lo)
+        self._show_range(vb, 0, t_lo - pad, t_hi + pad)
+        self._show_range(vb, 1, -1.06 * top, 1.06 * top)
+        diff = abs_max(self.difference.getData()[1]) or 1e-9  # none: a flat line at 0
+        self._show_range(self.difference_view, 1, -1.1 * diff, 1.1 * diff)
+
+

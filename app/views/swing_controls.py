@@ -1,0 +1,71 @@
+"""The swing preview's on-screen controls: play/pause, speed and a clearance line."""
+
+from __future__ import annotations
+
+from typing import TYPE_CHECKING
+
+from PySide6 import QtCore, QtWidgets
+
+from app.views.swing_animation import SPEED_LABELS, SPEEDS
+
+if TYPE_CHECKING:
+    from app.views.swing_preview import SwingPreview
+
+__all__ = ["SwingPreviewControls"]
+
+
+class SwingPreviewControls(QtWidgets.QWidget):
+    """Play/pause, speed and clearance-line controls for a :class:`SwingPreview`."""
+
+    def __init__(self, preview: SwingPreview, parent: QtWidgets.QWidget | None = None) -> None:
+        super().__init__(parent)
+        self.preview = preview
+        self.play_button = QtWidgets.QToolButton()
+        self.play_button.setText("Play")
+        self.play_button.setCheckable(True)
+        self.speed_box = QtWidgets.QComboBox()
+        for factor in SPEEDS:
+            self.speed_box.addItem(SPEED_LABELS[factor], factor)
+        self.line_check = QtWidgets.QCheckBox("Line below pivot")
+        self.line_depth = QtWidgets.QDoubleSpinBox(suffix=" m", decimals=3, minimum=0.0,
+                                                   maximum=1000.0, singleStep=0.05)
+        self.line_depth.setEnabled(False)
+        layout = QtWidgets.QHBoxLayout(self)
+        for w in (self.play_button, QtWidgets.QLabel("Speed"), self.speed_box,
+                  self.line_check, self.line_depth):
+            layout.addWidget(w)
+        layout.addStretch(1)  # the preview's control bar puts its title before these
+        self.play_button.toggled.connect(preview.set_playing)
+        self.speed_box.currentIndexChanged.connect(
+            lambda i: preview.set_speed(self.speed_box.itemData(i)))
+        self.line_check.toggled.connect(self._on_line_toggled)
+        self.line_depth.valueChanged.connect(self._on_depth_edited)
+        preview.playingChanged.connect(self._on_playing_changed)
+        preview.speedChanged.connect(self._on_speed_changed)
+        preview.clearanceChanged.connect(self._on_clearance_changed)
+
+    def _on_line_toggled(self, on: bool) -> None:
+        self.line_depth.setEnabled(on)
+        if on and self.line_depth.value() <= 0.0:
+            self.line_depth.setValue(round(self.preview.deepest_point_m() + 0.5, 3))
+        self.preview.set_clearance_line(self.line_depth.value() if on else None)
+
+    def _on_depth_edited(self, value: float) -> None:
+        if self.line_check.isChecked():
+            self.preview.set_clearance_line(value)
+
+    def _on_playing_changed(self, playing: bool) -> None:
+        with QtCore.QSignalBlocker(self.play_button):
+            self.play_button.setChecked(playing)
+            self.play_button.setText("Pause" if playing else "Play")
+
+    def _on_speed_changed(self, factor: float) -> None:
+        with QtCore.QSignalBlocker(self.speed_box):
+            self.speed_box.setCurrentIndex(SPEEDS.index(factor))
+
+    def _on_clearance_changed(self) -> None:
+        depth = self.preview.clearance_line_m()
+        if depth is not None and abs(depth - self.line_depth.value()) > 5e-4:
+            with QtCore.QSignalBlocker(self.line_depth):
+                self.line_depth.setValue(depth)
+
