@@ -150,10 +150,10 @@ class ArraySource:
 
     def read_windows(self, starts: NDArray[np.int64], length: int) -> FloatArray:
         """One row per start: frames [start, start + length), zero outside the array."""
-        pad = np.concatenate([np.zeros(length), np.asarray(self.samples, np.float64),
-                              np.zeros(length)])
-        idx = np.clip(np.asarray(starts), -length, self.frames)[:, None] + length
-        return pad[idx + np.arange(length)[None, :]]
+        idx = np.asarray(starts, dtype=np.int64)[:, None] + np.arange(length)[None, :]
+        inside = (idx >= 0) & (idx < self.frames)
+        rows = np.asarray(self.samples, dtype=np.float64)[np.clip(idx, 0, max(0, self.frames - 1))]
+        return np.where(inside, rows, 0.0)
 
 
 def _riff_layout(path: Path) -> tuple[int, int, int, int, int, int]:

@@ -184,10 +184,11 @@ def _track(ct: FloatArray, ch: FloatArray, start: int, beat: float, t_end: float
         href = float(np.median(recent[-9:]))
         ok = [j for j in range(lo, hi) if ch[j] >= 0.3 * href and j > acc_c[-1]]
         if not ok and misses >= 8:   # lost: re-acquire at the next strong event
-            nxt = [j for j in range(lo, len(ct)) if ch[j] >= 0.5 * href and j > acc_c[-1]]
-            if not nxt:
+            after = max(int(lo), acc_c[-1] + 1)
+            nxt = np.flatnonzero(ch[after:] >= 0.5 * href)
+            if not nxt.size:
                 break
-            j = nxt[0]
+            j = after + int(nxt[0])
             idx = acc_i[-1] + max(1, int(round((ct[j] - ct[acc_c[-1]]) / beat)))
             ok, pred = [j], ct[j]
         if not ok:
