@@ -43,6 +43,7 @@ MIN_TICKS = 8
 MIN_PERIOD_S = 0.1
 MAX_PERIOD_S = 20.0
 _OFF_BEAT_FLOOR_S = 30e-6   # never call a tick off the beat for less
+_MAX_SCATTER_OF_BEAT = 0.01   # beyond, the ticks found are not one clock's beat
 _OUT_OF_BEAT_PERCENT = 2.0   # common practice, no source: audibly out of beat
 BEATS_REPORT_KEYS = ("ticks", "rejected", "missing", "duration_s", "beat_s", "beat_sigma_s",
                      "period_s", "beat_asymmetry_ms", "beat_asymmetry_sigma_ms",
@@ -235,6 +236,10 @@ def analyse_detection(det: TickDetection, target_period_s: float | None = None) 
                                        f"{MIN_PERIOD_S:g}–{MAX_PERIOD_S:g} s: not a clock's "
                                        "ticking")
     missing = int(index[-1] - index[0] + 1 - len(index))
+    if fit.scatter_s > _MAX_SCATTER_OF_BEAT * b:
+        raise DesignError("recording", f"the ticks are too weak or too irregular to time: their "
+                                       f"scatter about a steady beat is {1e3 * fit.scatter_s:.3g}"
+                                       f" ms, over 1 % of the {b:.4g} s beat")
     drift = drift_sigma = None
     ref = target if target is not None else period
     third = (times[-1] - times[0]) / 3.0

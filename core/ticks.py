@@ -156,13 +156,17 @@ def _beat_from_autocorrelation(norm: FloatArray, cand_h: FloatArray, bin_s: floa
         raise DesignError("recording", "is too short to find a beat: it must hold at least "
                                        "three beats")
     lag = lo + int(np.argmax(acf[lo:hi]))
+    # heights above the background of chance coincidences of noise
+    floor = float(np.median(acf[lo:hi]))
+    top = acf[lag] - floor
     for n in (6, 5, 4, 3, 2):   # a multiple of the beat may win by chance: take the smallest
         a, b = int(lag / n * 0.9), int(lag / n * 1.1) + 1
-        if a >= lo and acf[a:b].max() >= 0.5 * acf[lag]:
+        if a >= lo and acf[a:b].max() - floor >= 0.5 * top:
             lag = a + int(np.argmax(acf[a:b]))
+            top = acf[lag] - floor
             break
     half = acf[max(lo, int(0.3 * lag)):max(lo + 1, int(0.7 * lag))]
-    if half.size and half.max() >= 0.35 * acf[lag]:
+    if half.size and half.max() - floor >= 0.25 * top:
         return float(lag) * bin_s / 2.0
     return float(lag) * bin_s
 

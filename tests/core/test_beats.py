@@ -183,6 +183,16 @@ class TestExits:
         assert err.value.field == "recording"
 
 
+    def test_irregular_ticks_refused(self) -> None:
+        # ticks scattered by 30 ms rms about a 1-s beat: 3 % of the beat, not a clock's timing
+        i = np.arange(40)
+        times = 0.1 + i + np.random.default_rng(1).normal(0, 0.03, 40)
+        det = TickDetection(times_s=times, index=i, correlation=np.ones(40),
+                            rejected_times_s=np.zeros(0), beat_estimate_s=1.0, rate_hz=8000,
+                            duration_s=41.0, templates=np.zeros((2, 4)), template_onset=1)
+        with pytest.raises(DesignError, match="too weak or too irregular"):
+            analyse_detection(det)
+
 class TestDemoRecording:
     def test_demo_file_is_marked_synthetic_and_gives_its_numbers(self) -> None:
         root = Path(__file__).resolve().parents[2]
