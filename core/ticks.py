@@ -173,38 +173,51 @@ def _beat_from_autocorrelation(norm: FloatArray, cand_h: FloatArray, bin_s: floa
 
 def _track(ct: FloatArray, ch: FloatArray, start: int, beat: float, t_end: float
            ) -> tuple[list[int], list[int]]:
-    """Follow ticks forward from candidate ``start``; returns candidate indices, beat indices."""
-    window = 0.25 * beat
+    """Follow ticks forward from candidate ``start``; returns candidate indices, beat indices.
+
+    Tick and tock keep their own loudness (a weak tock is judged against tocks) and the search
+    window narrows to the prediction's own scatter once a few beats are locked.
+    """
+    wide = 0.25 * beat
     acc_c, acc_i = [start], [0]
     intervals = [beat, beat]
     pred, idx, misses = ct[start], 0, 0
-    recent = [ch[start]]
+    recent: list[list[float]] = [[float(ch[start])], []]
+    errors: list[float] = []
     while True:
         pred += intervals[idx % 2]
         idx += 1
+        if len(errors) >= 6:
+            spread = 1.4826 * float(np.median(np.abs(errors[-16:])))
+            window = min(wide, max(0.005, 6.0 * spread + 0.003))
+        else:
+            window = wide
         if pred > t_end + window:
             break
         lo, hi = np.searchsorted(ct, [pred - window, pred + window])
-        href = float(np.median(recent[-9:]))
+        own = recent[idx % 2] or recent[(idx + 1) % 2]
+        href = float(np.median(own[-9:]))
         ok = [j for j in range(lo, hi) if ch[j] >= 0.3 * href and j > acc_c[-1]]
         if not ok and misses >= 8:   # lost: re-acquire at the next strong event
             after = max(int(lo), acc_c[-1] + 1)
-            nxt = np.flatnonzero(ch[after:] >= 0.5 * href)
+            loud = float(np.median(recent[0][-9:] + recent[1][-9:]))
+            nxt = np.flatnonzero(ch[after:] >= 0.5 * loud)
             if not nxt.size:
                 break
             j = after + int(nxt[0])
             idx = acc_i[-1] + max(1, int(round((ct[j] - ct[acc_c[-1]]) / beat)))
-            ok, pred = [j], ct[j]
+            ok, pred, errors = [j], ct[j], []
         if not ok:
             misses += 1
             continue
         j = min(ok, key=lambda k: abs(ct[k] - pred))
+        errors.append(float(ct[j] - pred))
         if acc_i[-1] == idx - 1:
             p = (idx - 1) % 2
             intervals[p] += 0.3 * ((ct[j] - ct[acc_c[-1]]) - intervals[p])
         acc_c.append(j)
         acc_i.append(idx)
-        recent.append(ch[j])
+        recent[idx % 2].append(float(ch[j]))
         pred, misses = ct[j], 0
     return acc_c, acc_i
 
@@ -229,6 +242,33 @@ def _follow(ct: FloatArray, ch: FloatArray, beat: float, t_end: float
     cand = np.array([len(ct) - 1 - c for c in bc[:0:-1]] + fc, dtype=np.int64)
     beat_idx = np.array([-i for i in bi[:0:-1]] + fi, dtype=np.int64)
     return cand, beat_idx - beat_idx[0]
+
+
+def _half_beat_heard(norm: FloatArray, times: FloatArray, index: IntArray, bin_s: float
+                     ) -> bool:
+    """Whether a weaker sound recurs midway between the tracked ticks (then they are every
+    other beat): the envelope folded over the tracked intervals (synchronous average), its
+    middle half searched for a peak well above that average's own noise."""
+    ok = np.flatnonzero(np.diff(index) == 1)
+    if len(ok) < 4:
+        return False
+    t0, t1 = times[ok], times[ok + 1]
+    cells = int(min(1000, max(50, np.median(t1 - t0) / bin_s)))
+    sums = np.zeros(cells)
+    counts = np.zeros(cells)
+    for a, b in zip(t0, t1, strict=True):
+        lo, hi = int(a / bin_s), min(len(norm), int(b / bin_s))
+        phase = ((np.arange(lo, hi) * bin_s - a) / (b - a) * cells).astype(np.int64)
+        keep = (phase >= 0) & (phase < cells)
+        sums += np.bincount(phase[keep], weights=norm[lo:hi][keep], minlength=cells)
+        counts += np.bincount(phase[keep], minlength=cells)
+    folded = sums / np.maximum(counts, 1)
+    mid = folded[cells // 4:3 * cells // 4]
+    background = float(np.median(mid))
+    noise = 1.4826 * float(np.median(np.abs(mid - background)))
+    tick = float(folded[:max(2, cells // 50)].max()) - background
+    rise = float(mid.max()) - background
+    return rise > 8.0 * noise and rise > 0.05 * tick
 
 
 def _onsets(env: FloatArray) -> FloatArray:
@@ -371,6 +411,9 @@ def detect_ticks(source: SampleSource) -> TickDetection:
     beat = _beat_from_autocorrelation(norm, ch, bin_s)
     ct = pk * bin_s
     cand, idx = _follow(ct, ch, beat, len(norm) * bin_s)
+    if beat / 2 >= MIN_BEAT_S and _half_beat_heard(norm, ct[cand], idx, bin_s):
+        beat /= 2.0   # weak tocks the autocorrelation missed
+        cand, idx = _follow(ct, ch, beat, len(norm) * bin_s)
     if len(cand) < 3:
         raise DesignError("recording", "holds no regular ticks")
     coarse = pk[cand] * nbin
