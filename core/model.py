@@ -10,6 +10,7 @@ import math
 from dataclasses import dataclass
 
 from .air import air_density
+from .blades import blade_stiffness_n_m_per_rad
 from .constants import SECONDS_PER_DAY
 from .design import Design
 from .errors import DesignError
@@ -17,7 +18,22 @@ from .gravity import normal_gravity
 from .mass_properties import Body, MassProperties, layout, mass_properties
 from .period import period_at, period_exact_and_slopes, period_small
 
-__all__ = ["PendulumState", "pendulum_state", "SECONDS_PER_DAY"]
+__all__ = ["PendulumState", "pendulum_state", "suspension_stiffness", "SECONDS_PER_DAY"]
+
+def suspension_stiffness(design: Design, tension_n: float) -> float:
+    """The suspension's restoring stiffness, N·m/rad, under a pull of ``tension_n`` (N).
+
+    A spring given by its blades is a blade in bending under tension
+    (:func:`core.blades.blade_stiffness_n_m_per_rad`, Young's modulus from the material table);
+    otherwise the design's own stiffness (0 for a knife edge).
+    """
+    blades = design.suspension.blades
+    if blades is None:
+        return design.suspension.stiffness_n_m_per_rad
+    return blade_stiffness_n_m_per_rad(
+        blades.count, design.material(blades.material).youngs_modulus_pa, blades.width_m,
+        blades.thickness_m, blades.free_length_m, tension_n)
+
 
 @dataclass(frozen=True)
 class PendulumState:
@@ -125,7 +141,7 @@ def pendulum_state(design: Design, *, temperature_c: float | None = None,
         raise DesignError("parts", "the centre of mass must hang below the pivot (the design's "
                                    f"first moment Σ m·z is {mass.first_moment_kg_m:.4g} kg·m)")
     inertia = mass.effective_inertia_kg_m2
-    k = design.suspension.stiffness_n_m_per_rad
+    k = suspension_stiffness(design, mass.mass_kg * g)
     theta0 = math.radians(amp)
     if slopes:
         periods, slope_a, slope_k = period_exact_and_slopes(inertia, torque, k, [theta0])

@@ -136,11 +136,11 @@ def format2(d: dict[str, Any], draw: st.DrawFn) -> None:
         d["exhibit"] = {"pivot_above_floor_m": draw(number(0.5, 30.0, (1e-9, 1000.0))),
                         "barrier_radius_m": draw(st.one_of(st.none(), number(0.1, 10.0)))}
     if draw(st.booleans()):
-        d["materials"] = {"zinc": {"name": "Zinc", "density_kg_m3": draw(number(10.0, 25000.0)),
+        d["materials"] = {"own_zinc": {"name": "Zinc", "density_kg_m3": draw(number(10.0, 25000.0)),
                                    "expansion_per_k": draw(number(-5e-5, 5e-4)),
                                    "youngs_modulus_pa": draw(number(1e6, 1.2e12)),
                                    "source": "invented"}}
-        d["parts"][0]["material"] = "zinc"
+        d["parts"][0]["material"] = "own_zinc"
     if d["suspension"]["kind"] == "spring" and draw(st.booleans()):
         d["suspension"] = {"kind": "spring", "stiffness_n_m_per_rad": None, "blades": {
             "count": draw(st.integers(1, 8)), "material": "steel",
