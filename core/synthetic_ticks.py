@@ -28,6 +28,8 @@ from numpy.typing import NDArray
 from scipy.fft import irfft, rfft, rfftfreq
 from scipy.signal import fftconvolve, resample_poly
 
+from .errors import DesignError
+
 __all__ = ["TickSignalSpec", "true_tick_times", "render_chunks", "render", "write_wav"]
 
 FloatArray = NDArray[np.float64]
@@ -175,7 +177,7 @@ def write_wav(spec: TickSignalSpec, path: str | Path, bits: int = 16, channels: 
     """
     width = bits // 8
     if bits not in (16, 24, 32):
-        raise ValueError(f"bits={bits}: must be 16, 24 or 32")
+        raise DesignError("bits", f"bits={bits} is out of range: it must be 16, 24 or 32")
     full = float(2 ** (bits - 1) - 1)
     other = TickSignalSpec(**{**spec.__dict__, "seed": spec.seed + 1000,
                               "amplitude": spec.amplitude * 0.7})
