@@ -171,7 +171,7 @@ class TestAutosave:
         saver.saved.connect(writes.append)
         for arc in (2.6, 2.7, 2.8):
             document.preview(_edit(document.design, arc))  # a drag: live edits
-            qtbot.wait(20)
+            assert saver.soon.isActive() and saver.soon.remainingTime() > 500  # (re)started
         assert writes == []
         qtbot.waitUntil(lambda: len(writes) == 1, timeout=5000)
         qtbot.wait(200)
