@@ -64,11 +64,9 @@ def test_the_window_processes_events_while_a_slow_analysis_runs(
     design = edit(window, 1.25)
     timer.start()
     qtbot.waitUntil(lambda: window.analysis_runner.busy)
-    started = time.perf_counter()
     qtbot.waitUntil(lambda: len(ticks) >= 10, timeout=900)  # the timer fires meanwhile
     button.click()  # and a click is handled
-    assert window.analysis_runner.busy and window.result is before
-    assert time.perf_counter() - started < 0.9
+    assert window.analysis_runner.busy and window.result is before  # still analysing
     assert clicks == [True]
     qtbot.waitUntil(lambda: window.compute_label.text() == COMPUTING_TEXT, timeout=900)
     wait_idle(qtbot, window)
