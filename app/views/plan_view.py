@@ -125,8 +125,8 @@ class PlanView(ResultView):
         self._pin_hours: list[float | None] = []
         self._labels: dict[str, pg.TextItem] = {}
         for key, colour, anchor in (("now", NOW_COLOUR, (1.0, 0.5)),
-                                    ("barrier", BARRIER_COLOUR, (0.0, 1.0)),
-                                    ("floor", "#6b5d40", (0.0, 0.0))):
+                                    ("barrier", BARRIER_COLOUR, (0.5, 0.0)),
+                                    ("floor", "#6b5d40", (1.0, 0.0))):
             label = pg.TextItem("", color=colour, anchor=anchor,
                                 fill=pg.mkBrush(255, 255, 255, 200))
             label.setZValue(12)
@@ -251,8 +251,8 @@ class PlanView(ResultView):
             self._barrier.setData(*_circle(barrier))
             margin = "" if g is None or g.barrier_margin_m is None else \
                 f" · margin {g.barrier_margin_m * k:.3g} {u}"
-            c = barrier / math.sqrt(2.0)
-            self._place(self._labels["barrier"], f"barrier r {barrier:.3g} {u}{margin}", c, -c)
+            self._place(self._labels["barrier"], f"barrier r {barrier:.3g} {u}{margin}", 0.0,
+                        -barrier)
         low = None if g is None else g.reach_below_headroom_m
         self._headroom.setData(*(_circle(low * k) if low is not None else ([], [])))
         if floor is None:
@@ -261,7 +261,7 @@ class PlanView(ResultView):
             clear = "" if g is None or g.floor_clearance_m is None else \
                 f", clearance {g.floor_clearance_m * k:.3g} {u}"
             self._place(self._labels["floor"], f"floor {floor * k:.3g} {u} below pivot{clear}",
-                        -e, -e * 0.80)
+                        e, e)
         self._draw_hours(turn, reach)
         self._draw_pins(turn, reach)
         self._update_info(r, turn, u, k)
