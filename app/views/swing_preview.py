@@ -27,7 +27,6 @@ from app.views.swing_animation import (
     WallClock,
 )
 from app.views.swing_controls import SwingPreviewControls
-from app.views.swing_site import SiteMarks
 from app.views.swing_drawing import (
     Drawing,
     Envelope,
@@ -35,6 +34,7 @@ from app.views.swing_drawing import (
     cosmetic_pen,
     outlines_from_bodies,
 )
+from app.views.swing_site import SiteMarks
 from core import Result
 from core.analysis import LOAD_CAUTION, SPRING_CAUTION
 

@@ -19,7 +19,6 @@ from app.views.swing_preview import (
     SPEEDS,
     SwingPreview,
     SwingPreviewControls,
-    outlines_from_bodies,
 )
 from core import analyse, design_from_dict, load_design, with_value
 from core.analysis import LOAD_CAUTION
