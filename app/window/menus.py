@@ -15,6 +15,7 @@ from app.views.motion import MotionPlot
 from app.views.rating_view import RatingView
 from app.window.files import example_files, example_title
 from app.window.parts import WindowParts
+from app.window.sheet_export import ask_export_sheet
 
 __all__ = ["WindowMenus"]
 
@@ -54,6 +55,7 @@ class WindowMenus(WindowParts):
         self._action(menu, "&Export plots…", self.ask_export_plots, "Ctrl+E")
         self._action(menu, "Export plots, data and &report…", self.ask_export_all,
                      "Ctrl+Shift+E")
+        self._action(menu, "Export client &sheet…", lambda: ask_export_sheet(self))
         menu.addSeparator()
         self._action(menu, "&Quit", self.close, QKeySequence.StandardKey.Quit)
 
