@@ -14,8 +14,8 @@ from app.views.base import View
 from app.views.motion import MotionPlot
 from app.views.period_curve import PeriodCurvePlot
 from app.views.phase import PhasePlot
-from app.views.rating_view import RatingView
 from app.views.plan_view import PlanView
+from app.views.rating_view import RatingView
 from app.views.sweep import SweepPlot
 from app.views.swing_preview import SwingPreview
 
