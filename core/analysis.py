@@ -13,6 +13,7 @@ from typing import Any
 import numpy as np
 from numpy.typing import NDArray
 
+from .blades import SPRING_STRESS_CAUTION, BladeStresses, blade_clamp_stresses
 from .constants import SECONDS_PER_DAY, STANDARD_GRAVITY
 from .design import Bob, ClampMount, Design, Rod, beats_per_hour
 from .errors import DesignError, guarded
@@ -97,6 +98,8 @@ class Result:
     motion: Motion
     phase: PhasePortrait
     period_curve: PeriodCurve
+    suspension_stiffness_n_m_per_rad: float = 0.0
+    blade_stresses: BladeStresses | None = None
 
     def report_dict(self) -> dict[str, Any]:
         """The JSON form of ``penduline report --json``: DESIGN §4 keys first, then the rest."""
@@ -184,6 +187,8 @@ def _cautions(design: Design, exhibit: ExhibitFigures) -> tuple[str, ...]:
     out = [LOAD_CAUTION]
     if design.suspension.kind == "spring":
         out.append(SPRING_CAUTION)
+    if design.suspension.blades is not None:
+        out.append(SPRING_STRESS_CAUTION)
     if exhibit.static_load_n > 200.0:
         kg = exhibit.static_load_n / STANDARD_GRAVITY
         out.append(f"Heavy pendulum ({kg:.3g} kg): keep people out "
@@ -272,4 +277,17 @@ def _analyse(design: Design, trim_height_m: float | None, ranges: BudgetRanges) 
         phase=phase_portrait(state.inertia_kg_m2, state.torque_n_m, state.stiffness_n_m_per_rad,
                              state.amplitude_rad),
         period_curve=period_curve(state),
+        suspension_stiffness_n_m_per_rad=state.stiffness_n_m_per_rad,
+        blade_stresses=_blade_stresses(design, state),
     )
+
+
+def _blade_stresses(design: Design, state: PendulumState) -> BladeStresses | None:
+    """Clamp stresses of a spring given by its blades, under the pendulum's static weight at
+    the working semi-arc (ideal elastic figures, Pa); None otherwise."""
+    b = design.suspension.blades
+    if b is None:
+        return None
+    return blade_clamp_stresses(b.count, design.material(b.material).youngs_modulus_pa,
+                                b.width_m, b.thickness_m, b.free_length_m,
+                                state.mass.mass_kg * state.g_m_s2, design.swing.amplitude_deg)
