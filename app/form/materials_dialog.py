@@ -164,8 +164,10 @@ class MaterialsDialog(QDialog):
         with QSignalBlocker(self.list):
             self.list.clear()
             for m in design.materials:
-                self.list.addItem(f"{m.label}  ·  {m.key}")
-                self.list.item(self.list.count() - 1).setData(Qt.ItemDataRole.UserRole, m.key)
+                self.list.addItem(m.label)
+                item = self.list.item(self.list.count() - 1)
+                item.setData(Qt.ItemDataRole.UserRole, m.key)
+                item.setToolTip(f"key {m.key}: {m.source}")
             keys = [m.key for m in design.materials]
             if self._editing in keys:
                 self.list.setCurrentRow(keys.index(self._editing))
@@ -185,6 +187,7 @@ class MaterialsDialog(QDialog):
         self.expansion.setValue(m.expansion_per_k / _PER_MICRO)
         self.modulus.setValue(m.youngs_modulus_pa / _PER_GIGA)
         self.source_edit.setText(m.source)
+        self.source_edit.setCursorPosition(0)
         self.remove_button.setEnabled(True)
         self._say("")
 

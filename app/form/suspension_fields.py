@@ -31,6 +31,8 @@ __all__ = ["SuspensionSection", "KeyedChoiceRow"]
 _SUSPENSIONS = [("knife_edge", "Knife edge"), ("spring", "Suspension spring")]
 _BLADE_KEYS = ("count", "material", "width_m", "thickness_m", "free_length_m")
 GIVEN_PATH = "suspension.given"
+_SHORT_CAUTION = ("Ideal elastic figures with no safety factor; Penduline does not certify a "
+                  "suspension spring (see the cautions).")
 
 
 class KeyedChoiceRow(ChoiceRow):
@@ -110,7 +112,8 @@ class SuspensionSection:
         self.spring_figures.setObjectName("SpringFigures")
         self.spring_figures.setWordWrap(True)
         form.addRow(self.spring_figures)
-        self.spring_caution = QLabel(SPRING_STRESS_CAUTION)
+        self.spring_caution = QLabel(_SHORT_CAUTION)
+        self.spring_caution.setToolTip(SPRING_STRESS_CAUTION)
         self.spring_caution.setProperty("role", "hint")
         self.spring_caution.setWordWrap(True)
         form.addRow(self.spring_caution)
@@ -168,14 +171,14 @@ class SuspensionSection:
         k = result.suspension_stiffness_n_m_per_rad
         text = f"Stiffness used: {k:.4g} N·m/rad"
         if design.suspension.blades is not None:
-            text = f"Stiffness from the blades, under the pendulum's weight: {k:.4g} N·m/rad"
+            text = f"Stiffness from the blades: {k:.4g} N·m/rad (under the pendulum's weight)"
         s = result.blade_stresses
         if s is not None:
-            strength = design.material(design.suspension.blades.material).strength_pa  # type: ignore[union-attr]
+            m = design.material(design.suspension.blades.material)  # type: ignore[union-attr]
             text += (f"\nClamp stress at the semi-arc: {s.peak_pa / 1e6:.3g} MPa peak "
                      f"({s.tension_pa / 1e6:.3g} tension + {s.bending_pa / 1e6:.3g} bending)")
-            if strength is not None:
-                text += f"; the material's strength: {strength / 1e6:.4g} MPa"
+            if m.strength_pa is not None:
+                text += f"\nStrength of {m.label.lower()}: {m.strength_pa / 1e6:.4g} MPa"
         self.spring_figures.setText(text)
 
     # ------------------------------------------------------------------ widgets → model

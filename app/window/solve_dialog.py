@@ -307,6 +307,10 @@ class SolveDialog(QDialog):
         unit = field_unit(path, self._system)
         return f"{unit.to_display(si):.{min(unit.decimals, 6)}f} {unit.text}".rstrip()
 
+    def _bound(self, path: str, si: float) -> str:
+        unit = field_unit(path, self._system)
+        return f"{unit.to_display(si):.6g} {unit.text}".rstrip()
+
     def _show_answer(self, design: Design, sol: Solution, result: Result) -> None:
         self.table.setRowCount(len(sol.fields))
         for row, (path, old, new) in enumerate(zip(sol.fields, sol.old_values, sol.values,
@@ -321,16 +325,16 @@ class SolveDialog(QDialog):
         self.figure_labels["period"].setText(f"{sol.period_s:.9f} s{target}")
         rate = result.rate_s_per_day
         self.figure_labels["rate"].setText("no target" if rate is None else
-                                           f"{rate:+.4f} s/day")
+                                           f"{rate + 0.0:+.4f} s/day".replace("-0.0000", "+0.0000"))
         tc = readout_unit("s/day/K", self._system)
         self.figure_labels["temperature"].setText(
             f"{tc.convert(sol.temperature_coefficient_s_per_day_per_k):+.6f} {tc.text}")
         self.figure_labels["residuals"].setText(", ".join(
             f"{r:+.2e} s" if goal == "period" else f"{r:+.2e} s/day/K"
             for goal, r in zip(sol.goals, sol.residuals, strict=True)))
-        self.figure_labels["searched"].setText("; ".join(
-            f"{field_name(design, p)}: {self._length(p, lo)} to {self._length(p, hi)} "
-            f"(usable {self._length(p, ulo)} to {self._length(p, uhi)})"
+        self.figure_labels["searched"].setText("\n".join(
+            f"{field_name(design, p)}: {self._bound(p, lo)} to {self._bound(p, hi)} "
+            f"(usable {self._bound(p, ulo)} to {self._bound(p, uhi)})"
             for p, (lo, hi), (ulo, uhi) in zip(sol.fields, sol.searched, sol.usable,
                                                strict=True)))
         self.figure_labels["others"].setText(
