@@ -17,6 +17,7 @@ from .design import Design
 from .errors import DesignError, guarded
 from .fileformat import design_from_dict, design_to_dict, get_value, set_in_dict
 from .model import SECONDS_PER_DAY, pendulum_state
+from .pivot import shift_pivot
 
 __all__ = ["SweepTable", "sweep_field", "shift_pivot"]
 
@@ -30,19 +31,6 @@ def _check_numeric_field(design_dict: dict[str, Any], path: str) -> None:
     if isinstance(value, bool) or not isinstance(value, (int, float)):
         raise DesignError(path, "is not a numeric field of this design")
     field_range(path)
-
-
-def shift_pivot(design_dict: dict[str, Any], shift_m: float) -> dict[str, Any]:
-    """A design dict with the pivot moved ``shift_m`` down the pendulum (every position −shift)."""
-    new = set_in_dict(design_dict, "name", design_dict.get("name", ""))
-    for part in new.get("parts", []):
-        for key in ("top_m", "at_m"):
-            if key in part:
-                part[key] = part[key] - shift_m
-        mount = part.get("mount")
-        if isinstance(mount, dict) and "centre_m" in mount:
-            mount["centre_m"] = mount["centre_m"] - shift_m
-    return new
 
 
 @dataclass(frozen=True)
