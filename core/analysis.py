@@ -21,7 +21,7 @@ from .errors import DesignError, guarded
 from .exhibit import ExhibitFigures, exhibit_figures
 from .exhibit_geometry import HEADROOM_M, SweptGeometry, swept_geometry
 from .fileformat import design_from_dict, design_to_dict
-from .mass_properties import Body
+from .mass_properties import Body, rods_in_series
 from .model import PendulumState, pendulum_state
 from .motion import Motion, motion
 from .period import period_exact
@@ -31,7 +31,7 @@ from .tuning import BudgetRanges, RateBudget, Sensitivities, rate_budget, sensit
 
 __all__ = ["Result", "PeriodCurve", "analyse", "REPORT_KEYS", "LOAD_CAUTION", "SPRING_CAUTION",
            "AIRY_CAUTION", "HEAVY_LOAD_N", "LOAD_CAUTION_MASS_KG", "LONG_PENDULUM_M",
-           "STRESS_WARNING_RATIO"]
+           "STRESS_WARNING_RATIO", "finite_or_none"]
 
 FloatArray = NDArray[np.float64]
 
@@ -124,7 +124,7 @@ class Result:
 
     def report_dict(self) -> dict[str, Any]:
         """The JSON form of ``penduline report --json``: DESIGN §4 keys first, then the rest."""
-        out: dict[str, Any] = {key: _plain(getattr(self, key)) for key in REPORT_KEYS}
+        out: dict[str, Any] = {key: getattr(self, key) for key in REPORT_KEYS}
         s, e = self.sensitivities, self.exhibit
         out.update({
             "name": self.design.name,
@@ -147,10 +147,9 @@ class Result:
             "rate_budget_rss_s_per_day": self.budget.root_sum_square_s_per_day,
             "cautions": list(self.cautions),
         })
-        out.update({f.name: _plain(getattr(e, f.name)) for f in fields(e)
-                    if f.name not in out})
+        out.update({f.name: getattr(e, f.name) for f in fields(e) if f.name not in out})
         out.update(self._exhibit_keys())
-        return out
+        return finite_or_none(out)
 
     def _exhibit_keys(self) -> dict[str, Any]:
         """Report keys of the exhibit planning and the pivot (null where not defined)."""
@@ -183,12 +182,21 @@ class Result:
                         "conjugate_pivot_m": p.conjugate_pivot_m,
                         "pivot_sensitivity_s_per_day_per_mm":
                             p.pivot_sensitivity_s_per_day_per_mm})
-        return {k: _plain(v) for k, v in out.items()}
+        return out
 
 
-def _plain(value: Any) -> Any:
-    if isinstance(value, tuple):
-        return list(value)
+def finite_or_none(value: Any) -> Any:
+    """``value`` made fit to leave the core: every float that is not finite (NaN, ±inf)
+    becomes None, everywhere — in dicts, lists, tuples (which become lists), numpy arrays and
+    numpy scalars (which become Python numbers). Use it on anything exported (JSON, CSV)."""
+    if isinstance(value, dict):
+        return {k: finite_or_none(v) for k, v in value.items()}
+    if isinstance(value, (list, tuple)):
+        return [finite_or_none(v) for v in value]
+    if isinstance(value, np.ndarray):
+        return [finite_or_none(v) for v in value.tolist()]
+    if isinstance(value, np.generic):
+        value = value.item()
     if isinstance(value, float) and not math.isfinite(value):
         return None
     return value
@@ -223,6 +231,10 @@ def _warnings(design: Design, state: PendulumState) -> tuple[str, ...]:
                    "the smallest change of arc changes it greatly.")
     # A bob hung at the end of a cable is ordinary: no warning (the validator refuses a bob
     # whose body does not reach its rod).
+    for lower, upper in rods_in_series(design):
+        out.append(f"Rod '{lower}' starts on rod '{upper}' at a fixed top, which does not "
+                   f"follow rod '{upper}' as it grows with temperature: the temperature "
+                   f"figures leave that growth out. Hang it from the rod's end (hangs_from).")
     if design.suspension.kind == "spring" and amp > 10.0:
         out.append(f"A suspension spring at {amp:g}° semi-arc bends far beyond its linear range; "
                    "the constant-stiffness model is optimistic there.")
@@ -334,6 +346,7 @@ def analyse(design: Design | dict[str, Any], *, trim_height_m: float | None = No
 def _analyse(design: Design, trim_height_m: float | None, ranges: BudgetRanges) -> Result:
     state = pendulum_state(design)
     sens = sensitivities(design, state, trim_height_m)
+    budget = rate_budget(design, state, ranges)
     exhibit = exhibit_figures(state)
     mass = state.mass
     floor, barrier = _room(design)
@@ -358,7 +371,8 @@ def _analyse(design: Design, trim_height_m: float | None, ranges: BudgetRanges) 
         bob_sensitivity_s_per_day_per_mm=sens.bob_s_per_day_per_mm,
         peak_speed_m_s=exhibit.peak_speed_m_s,
         max_pivot_load_n=exhibit.max_pivot_load_n,
-        warnings=_warnings(design, state) + _exhibit_warnings(design, geometry, cable),
+        warnings=(_warnings(design, state) + _exhibit_warnings(design, geometry, cable)
+                  + budget.notes),
         target_period_s=state.target_period_s,
         amplitude_deg=design.swing.amplitude_deg,
         air_density_kg_m3=state.air_density_kg_m3,
@@ -366,7 +380,7 @@ def _analyse(design: Design, trim_height_m: float | None, ranges: BudgetRanges) 
         torque_n_m=state.torque_n_m,
         cautions=_cautions(design, exhibit, geometry, mass.mass_kg),
         sensitivities=sens,
-        budget=rate_budget(design, state, ranges),
+        budget=budget,
         exhibit=exhibit,
         bodies=state.bodies,
         motion=motion(state.inertia_kg_m2, state.torque_n_m, state.stiffness_n_m_per_rad,

@@ -100,7 +100,7 @@ def exhibit_figures(state: PendulumState) -> ExhibitFigures:
     return ExhibitFigures(
         energy_j=energy,
         peak_angular_velocity_rad_s=omega_max,
-        peak_speed_m_s=None if bob is None else bob.centre_m * omega_max,
+        peak_speed_m_s=None if bob is None else abs(bob.centre_m) * omega_max,  # a magnitude
         static_load_n=mass * g,
         max_pivot_load_n=load,
         pivot_load_ratio=load / (mass * g),
