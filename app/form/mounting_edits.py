@@ -22,7 +22,7 @@ START_BLADES: dict[str, Any] = {"count": 2, "material": "spring_steel", "width_m
                                 "thickness_m": 0.0001, "free_length_m": 0.006}
 """A first spring when switching to blades: two blades 6 mm wide, 0.1 mm thick, 6 mm free."""
 
-_END_WORDS = {"lower": "lower end", "upper": "upper end"}
+_END_WORDS = {"lower": "Lower end", "upper": "Upper end"}
 
 
 def hang_key(part: str, end: str) -> str:
@@ -38,7 +38,7 @@ def hang_choices(design: Design, index: int) -> list[tuple[str, str]]:
     for p in design.parts:
         if p.kind in ("rod", "sleeve") and p.name != me:
             for end in ("lower", "upper"):
-                out.append((hang_key(p.name, end), f"{_END_WORDS[end]} of {p.kind} {p.name}"))
+                out.append((hang_key(p.name, end), f"{_END_WORDS[end]} of {p.kind} “{p.name}”"))
     return out
 
 
