@@ -81,7 +81,7 @@ class RecordingView(QWidget):
         self.analyser.refused.connect(self._on_refused)
         self.analyser.busyChanged.connect(self._on_busy)
         self._build()
-        self._show()
+        self._refuse("")
 
     # ------------------------------------------------------------------ building
     def _build(self) -> None:
@@ -162,12 +162,12 @@ class RecordingView(QWidget):
         bottom.addWidget(self.figures_box)
         bottom.setStretchFactor(0, 1)
         bottom.setStretchFactor(1, 0)
-        bottom.setSizes([400, 330])
+        bottom.setSizes([340, 370])
         self.splitter = QSplitter(Qt.Orientation.Vertical)
         self.splitter.setChildrenCollapsible(False)
         for part in (self.interval_plot, self.residual_plot, bottom):
             self.splitter.addWidget(part)
-        self.splitter.setSizes([290, 180, 370])
+        self.splitter.setSizes([250, 220, 360])
         self.bottom_splitter = bottom
 
         self.message = QLabel()
@@ -295,6 +295,7 @@ class RecordingView(QWidget):
         self.residual_plot.show_analysis(self.analysis)
         with QSignalBlocker(self.tick_spin):
             self.tick_spin.setRange(1, analysis.ticks)
+        self.tick_spin.setEnabled(True)
         self.tick_of.setText(f"of {analysis.ticks}")
         self._say(f"{request.path.name}: {analysis.ticks} ticks in "
                   f"{analysis.duration_s:.1f} s. Click a point, or step the tick number, to see "
@@ -313,16 +314,14 @@ class RecordingView(QWidget):
         self.waveform_plot.clear_waveform()
         with QSignalBlocker(self.tick_spin):
             self.tick_spin.setRange(0, 0)
+        self.tick_spin.setEnabled(False)
         self.tick_of.setText("")
         self._say(sentence)
-        self._show()
+        self._show_figures()
 
     # ------------------------------------------------------------------ showing
     def _say(self, text: str) -> None:
         self.message.setText(text)
-
-    def _show(self) -> None:
-        self._show_figures()
 
     def _show_figures(self) -> None:
         self.figures.setText(figures_html(self.analysis, self.problem))
