@@ -75,6 +75,7 @@ class DesignPanel(PartsSection, QScrollArea):
         self._build_parts_group()
         self._build_swing_group()
         self._build_target_group()
+        self._build_exhibit_group()
         self._layout.addStretch(1)
         self.setWidget(body)
         document.designChanged.connect(self._on_design_changed)
@@ -125,6 +126,7 @@ class DesignPanel(PartsSection, QScrollArea):
     def _build_design_group(self) -> None:
         form = self._group("Design")
         self._text(form, "name")
+        self._choice(form, "purpose", [("clock", "Clock"), ("exhibit", "Exhibit")])
         self._number(form, "reference_temperature_c")
 
     def _build_site_group(self) -> None:
@@ -155,6 +157,11 @@ class DesignPanel(PartsSection, QScrollArea):
         self._period_row = self._number(form, "target.period_s")
         self._bph_row = self._number(form, "target.beats_per_hour")
         self._number(form, "rating_nut.pitch_m", optional="Fitted")
+
+    def _build_exhibit_group(self) -> None:
+        form = self._group("Exhibit site")
+        self._number(form, "exhibit.pivot_above_floor_m", optional="Floor")
+        self._number(form, "exhibit.barrier_radius_m", optional="Barrier")
 
     # ================================================================== model → widgets
     def _on_design_changed(self, design: Design) -> None:

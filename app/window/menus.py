@@ -16,6 +16,7 @@ from app.views.rating_view import RatingView
 from app.views.recording_view import RecordingView
 from app.window.files import example_files, example_title
 from app.window.parts import WindowParts
+from app.window.sheet_export import ask_export_sheet
 
 __all__ = ["WindowMenus"]
 
@@ -56,6 +57,7 @@ class WindowMenus(WindowParts):
         self._action(menu, "&Export plots…", self.ask_export_plots, "Ctrl+E")
         self._action(menu, "Export plots, data and &report…", self.ask_export_all,
                      "Ctrl+Shift+E")
+        self._action(menu, "Export client &sheet…", lambda: ask_export_sheet(self))
         menu.addSeparator()
         self._action(menu, "&Quit", self.close, QKeySequence.StandardKey.Quit)
 
