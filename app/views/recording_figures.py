@@ -39,22 +39,20 @@ def figures_html(analysis: BeatAnalysis | None, problem: str = "") -> str:
     out.append(_row("Beat", f"{a.beat_s:.6f} s", f"± {1e6 * a.beat_sigma_s:.2f} µs"))
     out.append(_row("Period", f"{a.period_s:.6f} s"))
     out.append(_row("Beat asymmetry", f"{a.beat_asymmetry_ms:.3f} ms",
-                    f"± {1e3 * a.beat_asymmetry_sigma_s:.3f} ms, "
+                    f"± {1e3 * a.beat_asymmetry_sigma_s:.3f}, "
                     f"{a.beat_asymmetry_percent:.2f} % of the beat"))
     if a.rate_s_per_day is not None and a.rate_sigma_s_per_day is not None:
         out.append(_row("Rate", f"{a.rate_s_per_day:+.2f} s/day",
-                        f"± {a.rate_sigma_s_per_day:.2f} against {a.target_period_s:g} s "
-                        "(+ gains)"))
+                        f"± {a.rate_sigma_s_per_day:.2f}, against {a.target_period_s:g} s"))
     else:
         out.append(_row("Rate", "—", "the design has no target period"))
     if a.rate_drift_s_per_day is not None and a.rate_drift_sigma_s_per_day is not None:
         out.append(_row("Drift", f"{a.rate_drift_s_per_day:+.2f} s/day",
-                        f"± {a.rate_drift_sigma_s_per_day:.2f}, last third − first third"))
+                        f"± {a.rate_drift_sigma_s_per_day:.2f}, last third on first"))
     else:
         out.append(_row("Drift", "—", "too few ticks in each third"))
-    out.append(_row("Ticks", f"{a.ticks}", f"in {a.duration_s:.1f} s at "
-                    f"{a.sample_rate_hz / 1000:g} kHz; {a.rejected} rejected, "
-                    f"{a.missing} missing"))
+    out.append(_row("Ticks", f"{a.ticks}", f"{a.rejected} rejected, {a.missing} missing, "
+                    f"in {a.duration_s:.1f} s"))
     out.append(_row("Timing scatter", f"{1e3 * a.timing_scatter_s:.4f} ms", "rms"))
     out.append("</table>")
     out.append(f"<p>In short: {html.escape(verdict(a))}.</p>")

@@ -219,7 +219,7 @@ class WaveformPlot(pg.PlotWidget):
     def __init__(self, parent: QWidget | None = None) -> None:
         super().__init__(parent=parent, background=theme.PLOT_BACKGROUND)
         style_plot(self, "Sound around the chosen tick", "level (full scale)",
-                   "time from the detected onset (ms)")
+                   "from the detected onset (ms)")
         self.raw = pg.PlotCurveItem(pen=pen(theme.NEIGHBOUR, 1.0))
         self.filtered = pg.PlotCurveItem(pen=pen(theme.EXACT, 1.3))
         self.onset = pg.InfiniteLine(0.0, angle=90, pen=pen(CHOSEN, 2.0),
@@ -229,7 +229,7 @@ class WaveformPlot(pg.PlotWidget):
             self.addItem(item)
         legend = _legend(self, 3)
         legend.addItem(self.raw, "as recorded")
-        legend.addItem(self.filtered, "high-passed (as detected)")
+        legend.addItem(self.filtered, "as the detector hears it")
         self.legend = legend
         self.onset.hide()
 

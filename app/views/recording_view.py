@@ -162,7 +162,7 @@ class RecordingView(QWidget):
         bottom.addWidget(self.figures_box)
         bottom.setStretchFactor(0, 1)
         bottom.setStretchFactor(1, 0)
-        bottom.setSizes([340, 370])
+        bottom.setSizes([390, 320])
         self.splitter = QSplitter(Qt.Orientation.Vertical)
         self.splitter.setChildrenCollapsible(False)
         for part in (self.interval_plot, self.residual_plot, bottom):
@@ -347,8 +347,8 @@ class RecordingView(QWidget):
             return
         kind = "tick" if a.tick_index[position] % 2 == 0 else "tock"
         self.waveform_plot.show_waveform(
-            t, raw, filtered, f"Beat {int(a.tick_index[position]) + 1} ({kind}) at "
-                              f"{time_s:.4f} s, residual {1e6 * a.residuals_s[position]:+.1f} µs")
+            t, raw, filtered, f"Beat {int(a.tick_index[position]) + 1}, a {kind}, at "
+                              f"{time_s:.3f} s ({1e6 * a.residuals_s[position]:+.0f} µs)")
         self.interval_plot.mark(position)
         self.residual_plot.mark(position)
 
