@@ -50,6 +50,14 @@ class Row(QWidget):
     def editor(self) -> QWidget:  # pragma: no cover - every row overrides it
         raise NotImplementedError
 
+    def set_help(self, text: str) -> None:
+        """The field table's help sentence, as the tooltip of the row's entry."""
+        widget = self.editor()
+        if isinstance(widget, NumberField):
+            widget.set_help(text)
+        else:
+            widget.setToolTip(text)
+
     def mark(self, message: str) -> None:
         """Outline the entry in red and say why below it; "" clears the mark."""
         self.problem_label.setText(message)

@@ -82,6 +82,7 @@ class NumberField(QAbstractSpinBox):
         self._live: float | None = None      # value being stepped, SI
         self._stepping = False
         self._problem = ""
+        self._help = ""
         self._settle = QTimer(self)
         self._settle.setSingleShot(True)
         self._settle.setInterval(SETTLE_MS)
@@ -129,6 +130,12 @@ class NumberField(QAbstractSpinBox):
     def _format(self, si: float) -> str:
         return format_number(self._unit.to_display(si), self._unit.decimals)
 
+    def set_help(self, text: str) -> None:
+        """The tooltip shown while the entry is fine (a refusal sentence replaces it)."""
+        self._help = text
+        if not self._problem:
+            self.setToolTip(text)
+
     # ------------------------------------------------------------------ problems
     def problem(self) -> str:
         """The current refusal sentence ("" when none)."""
@@ -140,7 +147,7 @@ class NumberField(QAbstractSpinBox):
             return
         self._problem = message
         self.setProperty("invalid", bool(message))
-        self.setToolTip(message)
+        self.setToolTip(message or self._help)
         self.style().unpolish(self)
         self.style().polish(self)
         self.problemChanged.emit(message)

@@ -23,6 +23,7 @@ from PySide6.QtWidgets import (
 from app.form import design_edits
 from app.form.field_rows import Row
 from core import Design, DesignError, Result
+from core.fields import choice_label
 from core.materials import MATERIALS
 
 if TYPE_CHECKING:
@@ -31,8 +32,8 @@ if TYPE_CHECKING:
 
 __all__ = ["PartsSection"]
 
-_SHAPES = [("lens", "Lens"), ("disc", "Disc"), ("cylinder", "Cylinder"), ("sphere", "Sphere")]
-_MOUNTS = [("clamp", "Clamped to a rod"), ("on_sleeve", "Resting on a sleeve")]
+_SHAPES = [(k, choice_label("shape", k)) for k in ("lens", "disc", "cylinder", "sphere")]
+_MOUNTS = [(k, choice_label("mount", k)) for k in ("clamp", "on_sleeve")]
 
 
 class PartsSection:
@@ -131,9 +132,6 @@ class PartsSection:
     def _build_bob_rows(self, design: Design, part: Any, at: str) -> None:
         form, reg = self.part_form, self._part_rows
         mount = self._choice(form, f"{at}.mount.kind", _MOUNTS, reg)
-        mount_label = form.labelForField(mount)
-        if isinstance(mount_label, QLabel):
-            mount_label.setText("Mounting")
         names = (design_edits.rod_names(design) if part.mount.kind == "clamp"
                  else design_edits.sleeve_names(design))
         self._choice(form, f"{at}.mount.on", _names(names), reg)

@@ -13,7 +13,6 @@ import time
 from dataclasses import asdict
 
 from app.document.settings import app_settings, store_budget_ranges
-from app.form.labels import field_label
 from app.form.units import UnitSystem
 from app.window.parts import WindowParts
 from core import Design, DesignError, Result, analyse
@@ -91,13 +90,13 @@ class WindowComputing(WindowParts):
         if error.field == "trim_height_m":
             self.readout.show_trim_problem(error.reason)
             return
-        where = field_label(error.field) if error.field not in ("design", "parts") else "Design"
+        sentence = self.design_panel.refusal_text(error)
         self.readout.show_compute_problem(
-            f"{where}: {error.reason}. The plots and figures still show the last design that "
-            "could be computed.")
+            f"{sentence} The plots and figures still show the last design that could be "
+            "computed.")
         row = self.design_panel.all_rows().get(error.field)
         if row is not None:
-            row.mark(error.reason)
+            row.mark(sentence)
 
     def _on_design_changed(self, _design: Design) -> None:
         self._update_title()

@@ -108,8 +108,8 @@ class TestBadInput:
         assert window.document.design == before.design
 
     @pytest.mark.parametrize("path, text, words", [
-        ("parts[0].length_m", "-1", "out of range"),
-        ("swing.amplitude_deg", "180", "out of range"),
+        ("parts[0].length_m", "-1", "Rod length must be between 0.1 mm and 1000 m."),
+        ("swing.amplitude_deg", "180", "Semi-arc must be between"),
     ])
     def test_values_out_of_range_are_refused_with_the_core_reason(
             self, window: MainWindow, qtbot, path: str, text: str, words: str) -> None:  # type: ignore[no-untyped-def]
