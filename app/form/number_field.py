@@ -16,7 +16,7 @@ from PySide6.QtCore import QSize, Qt, QTimer, Signal
 from PySide6.QtGui import QFocusEvent, QKeyEvent, QMouseEvent, QValidator, QWheelEvent
 from PySide6.QtWidgets import QAbstractSpinBox, QWidget
 
-from app.form.units import FieldUnit
+from app.form.units import FieldUnit, format_sig
 
 __all__ = ["NumberField", "NumberTextError", "parse_number", "format_number"]
 
@@ -128,7 +128,10 @@ class NumberField(QAbstractSpinBox):
         return self._stepping and self._live is not None and self._live == si
 
     def _format(self, si: float) -> str:
-        return format_number(self._unit.to_display(si), self._unit.decimals)
+        shown = self._unit.to_display(si)
+        if shown and abs(shown) < 10.0 ** (3 - self._unit.decimals):
+            return format_sig(shown, 6)  # a small value keeps its figures (0.000227 lb)
+        return format_number(shown, self._unit.decimals)
 
     def set_help(self, text: str) -> None:
         """The tooltip shown while the entry is fine (a refusal sentence replaces it)."""

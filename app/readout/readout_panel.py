@@ -28,8 +28,9 @@ from PySide6.QtWidgets import (
 )
 
 from app.form.number_field import NumberField
-from app.form.units import UnitSystem, field_unit, readout_unit
+from app.form.units import ReadoutUnit, UnitSystem, field_unit, readout_unit
 from app.readout.cells import TreeCells, budget_rows, convert, delta_text
+from app.readout.figure_words import figure_label
 from app.readout.notes import NotesPane
 from app.readout.readout_format import SECTIONS, describe, format_value
 from core import Result
@@ -37,7 +38,7 @@ from core.tuning import BudgetRanges
 
 __all__ = ["ReadoutPanel", "BUDGET_RANGES"]
 
-BUDGET_SECTION = "Rate budget"
+BUDGET_SECTION = "Rate budget: spread of the rate, end to end"
 BUDGET_RANGES: tuple[tuple[str, str, str], ...] = (
     ("temperature_k", "Temperature range ±",
      "Half-width of the temperature range the budget spans, about the site's temperature"),
@@ -75,6 +76,7 @@ class ReadoutPanel(QWidget):
         self._result: Result | None = None
         self._baseline: Result | None = None
         self._items: dict[str, tuple[QTreeWidgetItem, str, str]] = {}
+        self._labels: dict[str, str] = {}
         self._budget_items: list[QTreeWidgetItem] = []
         self.budget_fields: dict[str, NumberField] = {}
         self._range_items: dict[str, QTreeWidgetItem] = {}
@@ -181,9 +183,10 @@ class ReadoutPanel(QWidget):
                 item.setTextAlignment(3, _RIGHT)
                 item.setToolTip(0, describe(key))
                 self._items[key] = (item, unit, fmt)
+                self._labels[key] = label
                 labels.append(label)
+                labels.extend(figure_label(key, label, None, system)[0] for system in UnitSystem)
         self._budget_head = self._section_item(tree, BUDGET_SECTION, bold, section_brush)
-        labels.append(BUDGET_SECTION)
         for key, label, tip in BUDGET_RANGES:
             labels.append(label)
             self._add_range_entry(tree, key, label, tip)
@@ -287,6 +290,10 @@ class ReadoutPanel(QWidget):
         cells: list[tuple[QTreeWidgetItem, int, str]] = []
         for key, (item, unit, fmt) in self._items.items():
             shown = readout_unit(unit, self._system)
+            label, factor = figure_label(key, self._labels[key], result, self._system)
+            if factor != 1.0:
+                shown = ReadoutUnit(shown.text, shown.scale * factor)
+            cells.append((item, 0, label))
             cells.append((item, 1, format_value(convert(report.get(key), shown), fmt)))
             cells.append((item, 2, shown.text))
             cells.append((item, 3, "" if base is None else delta_text(report.get(key),
