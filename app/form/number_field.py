@@ -129,7 +129,7 @@ class NumberField(QAbstractSpinBox):
 
     def _format(self, si: float) -> str:
         shown = self._unit.to_display(si)
-        if shown and abs(shown) < 10.0 ** (3 - self._unit.decimals):
+        if shown and abs(shown) < 10.0 ** (2 - self._unit.decimals):
             return format_sig(shown, 6)  # a small value keeps its figures (0.000227 lb)
         return format_number(shown, self._unit.decimals)
 

@@ -38,6 +38,25 @@ class NotesPane(QScrollArea):
         self.caution_text.setText(bullets(cautions))
 
 
+    def needed_height(self, width: int) -> int:
+        """Height that shows every note whole at ``width`` px, px (0 when there are none)."""
+        layout = self.notes_layout
+        boxes = [b for b in (self.warning_box, self.caution_box) if not b.isHidden()]
+        if not boxes:
+            return 0
+        margins = layout.contentsMargins()
+        inner = max(50, width - margins.left() - margins.right())
+        total = sum(_box_height(b, inner) for b in boxes)
+        return total + layout.spacing() * (len(boxes) - 1) + margins.top() + margins.bottom() + 12
+
+
+def _box_height(box: QFrame, width: int) -> int:
+    layout = box.layout()
+    if layout is not None and layout.hasHeightForWidth():
+        return layout.totalHeightForWidth(width)
+    return box.sizeHint().height()
+
+
 def _note_box(name: str, heading: str) -> tuple[QFrame, QLabel]:
     box = QFrame()
     box.setObjectName(name)

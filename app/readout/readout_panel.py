@@ -14,8 +14,8 @@ from __future__ import annotations
 
 from typing import Any
 
-from PySide6.QtCore import QSize, Qt, Signal
-from PySide6.QtGui import QBrush, QColor, QFont, QShowEvent
+from PySide6.QtCore import QSize, Qt, QTimer, Signal
+from PySide6.QtGui import QBrush, QColor, QFont, QResizeEvent, QShowEvent
 from PySide6.QtWidgets import (
     QHBoxLayout,
     QHeaderView,
@@ -108,6 +108,10 @@ class ReadoutPanel(QWidget):
         self.splitter.setStretchFactor(1, 1)
         self.splitter.setSizes([560, 220])
         layout.addWidget(self.splitter, 1)
+        self._fit_timer = QTimer(self)
+        self._fit_timer.setSingleShot(True)
+        self._fit_timer.setInterval(0)
+        self._fit_timer.timeout.connect(self._fit_notes_now)
 
     # ================================================================== building
     def _build_trim_row(self) -> QHBoxLayout:
@@ -174,9 +178,13 @@ class ReadoutPanel(QWidget):
         bold.setBold(True)
         section_brush = QBrush(QColor("#e9e5dc"))
         labels = []
+        self._heads: dict[str, QTreeWidgetItem] = {}
         for section, rows in SECTIONS:
             head = self._section_item(tree, section, bold, section_brush)
+            self._heads[section] = head
             labels.append(section)
+            if section == "Tuning":  # the budget follows the sensitivities it adds up
+                self._add_budget_section(tree, bold, section_brush, labels)
             for key, label, unit, fmt in rows:
                 item = QTreeWidgetItem(head, [label, "", unit, ""])
                 item.setTextAlignment(1, _RIGHT)
@@ -186,11 +194,10 @@ class ReadoutPanel(QWidget):
                 self._labels[key] = label
                 labels.append(label)
                 labels.extend(figure_label(key, label, None, system)[0] for system in UnitSystem)
-        self._budget_head = self._section_item(tree, BUDGET_SECTION, bold, section_brush)
-        for key, label, tip in BUDGET_RANGES:
-            labels.append(label)
-            self._add_range_entry(tree, key, label, tip)
         tree.expandAll()
+        tree.itemExpanded.connect(self._mark_section)
+        tree.itemCollapsed.connect(self._mark_section)
+        tree.itemClicked.connect(self._toggle_section)
         tree.setColumnHidden(3, True)
         # The label column fits the longest label, measured once here (these labels never
         # change; measuring on every update was what made live drags slow): the tree may not
@@ -202,6 +209,15 @@ class ReadoutPanel(QWidget):
         self._tree_extra = tree.verticalScrollBar().sizeHint().width() + 2 * tree.frameWidth()
         tree.setMinimumWidth(self._tree_width(tree, delta=False))
         return tree
+
+    def _add_budget_section(self, tree: QTreeWidget, bold: QFont, brush: QBrush,
+                            labels: list[str]) -> None:
+        """The rate budget's head (placed after Tuning) and its range entries."""
+        self._budget_head = self._section_item(tree, BUDGET_SECTION, bold, brush)
+        self._heads[BUDGET_SECTION] = self._budget_head
+        for key, label, tip in BUDGET_RANGES:
+            labels.append(label)
+            self._add_range_entry(tree, key, label, tip)
 
     def _add_range_entry(self, tree: QTreeWidget, key: str, label: str, tip: str) -> None:
         """A row of the budget section holding the entry of one range's half-width (in the
@@ -234,6 +250,11 @@ class ReadoutPanel(QWidget):
         for key in self._range_items:
             self._fit_range_row(key)
         super().showEvent(event)
+        self.fit_notes()
+
+    def resizeEvent(self, event: QResizeEvent) -> None:  # Qt override
+        super().resizeEvent(event)
+        self.fit_notes()
 
     def _tree_width(self, tree: QTreeWidget, delta: bool) -> int:
         """Least tree width that shows every label whole, px."""
@@ -256,6 +277,37 @@ class ReadoutPanel(QWidget):
         margins = self._layout.contentsMargins()
         needed = self.tree.minimumWidth() + margins.left() + margins.right()
         self.setMinimumWidth(max(self._own_min_width, needed))
+
+    def _mark_section(self, head: QTreeWidgetItem) -> None:
+        """A section's title says whether it is open (▾) or closed (▸)."""
+        if head.parent() is None:
+            title = head.text(0).lstrip("▾▸ ")
+            self._cells.set_text(head, 0, f"{'▾' if head.isExpanded() else '▸'} {title}")
+
+    def _toggle_section(self, item: QTreeWidgetItem, _column: int) -> None:
+        if item.parent() is None:
+            item.setExpanded(not item.isExpanded())
+
+    def arrange_for(self, purpose: str) -> None:
+        """Put the figures of the design's use first, so they fit without scrolling: a clock
+        opens with timekeeping, tuning and the rate budget; an exhibit with the swing and loads
+        (speed, sweep, loads, Foucault turn), its tuning closed. A click on a section's title
+        opens or closes it."""
+        if purpose == getattr(self, "_purpose", None):
+            return  # keep what the person opened or closed since
+        self._purpose = purpose
+        tree = self.tree
+        loads = self._heads["Swing and loads"]
+        index = tree.indexOfTopLevelItem(loads)
+        wanted = 0 if purpose == "exhibit" else tree.topLevelItemCount() - 1
+        if index != wanted:
+            tree.takeTopLevelItem(index)
+            tree.insertTopLevelItem(wanted, loads)
+            loads.setFirstColumnSpanned(True)
+        closed = ("Tuning",) if purpose == "exhibit" else ()
+        for title, head in self._heads.items():
+            head.setExpanded(title not in closed)
+            self._mark_section(head)
 
     @staticmethod
     def _section_item(tree: QTreeWidget, title: str, font: QFont,
@@ -302,6 +354,10 @@ class ReadoutPanel(QWidget):
         self._cells.write(cells)
         self._show_budget(result)
         self._show_notes(result)
+        design = result.design
+        exhibit = (design.purpose == "exhibit" or design.exhibit is not None
+                   or design.target.target_period_s is None)  # no target: no time to keep
+        self.arrange_for("exhibit" if exhibit else "clock")
         if not self.trim_field.hasFocus():
             self.trim_field.set_value(result.sensitivities.trim_height_m)
         self.show_compute_problem("")
@@ -321,8 +377,6 @@ class ReadoutPanel(QWidget):
                 continue
             self._cells.write([(item, column, text) for column, text in enumerate(rows[i])])
             self._cells.set_tip(item, tips[i])
-        if not self._budget_head.isExpanded():
-            self._budget_head.setExpanded(True)
 
     def _fit_budget_labels(self, labels: list[str]) -> None:
         """Widen the label column when a budget line's label (range and unit) needs it; the
@@ -340,6 +394,21 @@ class ReadoutPanel(QWidget):
         if (result.warnings, result.cautions) != self._notes_shown:
             self._notes_shown = (result.warnings, result.cautions)
             self.notes.show_notes(result.warnings, result.cautions)
+            self.fit_notes()
+
+    def fit_notes(self) -> None:
+        """Give the notes only the height they need (at most half the column); the figures
+        take the rest. Done once the layout has settled (their height depends on the width)."""
+        self._fit_timer.start()
+
+    def _fit_notes_now(self) -> None:
+        total = sum(self.splitter.sizes())
+        if total <= 0:
+            return
+        self.notes.widget().adjustSize()
+        need = self.notes.needed_height(self.notes.viewport().width() or self.width())
+        notes = min(need, total // 2)
+        self.splitter.setSizes([total - notes, notes])
 
     def show_compute_problem(self, message: str) -> None:
         """Say that the design shown cannot be computed (figures stay at the last good one)."""
