@@ -119,7 +119,7 @@ def _metres_shown(text: str, system: UnitSystem) -> str:
     return _METRES.sub(lambda m: quantity_text(float(m.group(1)), "length", system), text)
 
 
-_KEY = re.compile(r"\b(?:[a-z]+\[\d+\]\.)?(?:[a-z]+\.)*[a-z]+_[a-z_0-9]+\b")
+_KEY = re.compile(r"\b(?:[a-z_]+(?:\[\d+\])?\.)*[a-z]+_[a-z_0-9]+\b")
 
 
 def _without_keys(text: str) -> str:

@@ -49,12 +49,12 @@ tr.section td { background-color: #f0f3f6; font-weight: bold; color: #1d3f5c; }
 p.caption { color: #444; margin-top: 2px; }
 """
 
-_PLOT_MARK = "penduline-plot:"  # a paragraph holding only this and an index becomes a plot
+_PLOT_MARK = "penduline-drawing:"  # a paragraph holding only this and an index becomes a plot
 
 
 def _plots_html(images: Mapping[str, str], captions: Mapping[str, str]) -> str:
     """Two plots a page, each under its title with its caption; ``images`` maps a title to
-    an image URL, or to ``penduline-plot:N`` for a drawing placed as vectors."""
+    an image URL, or to ``penduline-drawing:N`` for a drawing placed as vectors."""
     parts = []
     for i, (title, url) in enumerate(images.items()):
         brk = " style='page-break-before: always'" if i % 2 == 0 else ""
@@ -73,7 +73,7 @@ def report_html(result: Result, *, source_name: str | None, date: _dt.date,
                 image_urls: Mapping[str, str], captions: Mapping[str, str] | None = None,
                 system: UnitSystem = UnitSystem.METRIC) -> str:
     """The report as Qt rich-text HTML in ``system``'s units; ``image_urls`` maps plot titles
-    to resource URLs (or to ``penduline-plot:N`` marks for drawings placed as vectors)."""
+    to resource URLs (or to ``penduline-drawing:N`` marks for drawings placed as vectors)."""
     cautions = list(dict.fromkeys([LOAD_CAUTION, SPRING_CAUTION, *result.cautions]))
     meta = " · ".join(x for x in (f"File: {html.escape(source_name)}" if source_name else "",
                                   f"Date: {date.isoformat()}", "Penduline") if x)
