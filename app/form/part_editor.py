@@ -131,7 +131,7 @@ class PartsSection:
         self._number(form, f"{at}.mass_kg", optional="Given", registry=reg)
     def _build_bob_rows(self, design: Design, part: Any, at: str) -> None:
         form, reg = self.part_form, self._part_rows
-        mount = self._choice(form, f"{at}.mount.kind", _MOUNTS, reg)
+        self._choice(form, f"{at}.mount.kind", _MOUNTS, reg)
         names = (design_edits.rod_names(design) if part.mount.kind == "clamp"
                  else design_edits.sleeve_names(design))
         self._choice(form, f"{at}.mount.on", _names(names), reg)

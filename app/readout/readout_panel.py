@@ -405,7 +405,9 @@ class ReadoutPanel(QWidget):
         total = sum(self.splitter.sizes())
         if total <= 0:
             return
-        self.notes.widget().adjustSize()
+        body = self.notes.widget()
+        if body is not None:
+            body.adjustSize()
         need = self.notes.needed_height(self.notes.viewport().width() or self.width())
         notes = min(need, total // 2)
         self.splitter.setSizes([total - notes, notes])

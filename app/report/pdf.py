@@ -134,10 +134,12 @@ class _PlotObject(QtGui.QPyTextObject):
         width = _IMAGE_WIDTH_HTML * (device.logicalDpiX() / 96.0 if device else 1.0)
         return QtCore.QSizeF(width, width * box.height() / max(1, box.width()))
 
-    def drawObject(self, painter: QtGui.QPainter, rect: QtCore.QRectF,  # Qt override
+    def drawObject(self, painter: QtGui.QPainter,  # Qt override
+                   rect: QtCore.QRectF | QtCore.QRect,
                    doc: QtGui.QTextDocument, pos: int, fmt: QtGui.QTextFormat) -> None:
         picture = self._pictures[int(fmt.property(_PLOT_INDEX))]
         box = picture.boundingRect()
+        rect = QtCore.QRectF(rect)
         painter.save()
         painter.translate(rect.topLeft())
         # A picture replayed on a device of another resolution is scaled by the ratio of the

@@ -175,8 +175,8 @@ def budget_table(result: Result, system: UnitSystem) -> str:
         unit = readout_unit(line.unit, system)
         rows.append([
             td(html.escape(line.cause)),
-            td(f"{format_sig(unit.convert(line.low), 5)} to {format_sig(unit.convert(line.high), 5)}"
-               f" {html.escape(unit.text)}"),
+            td(f"{format_sig(unit.convert(line.low), 5)} to "
+               f"{format_sig(unit.convert(line.high), 5)} {html.escape(unit.text)}"),
             td(format_value(line.rate_at_low_s_per_day, "{:+.3f}"), True),
             td(format_value(line.rate_at_high_s_per_day, "{:+.3f}"), True),
             td(format_value(abs(line.spread_s_per_day), "{:.3f}"), True)])

@@ -159,7 +159,7 @@ class WindowFiles(WindowParts):
             return []
         try:
             return export_result(self.result, folder, self.document.display_name(),
-                                 system=self.unit_system())
+                                 system=self._system)
         except DesignError as exc:
             self.show_message("Cannot export", exc.reason[:1].upper() + exc.reason[1:])
             return []

@@ -45,7 +45,8 @@ class TestUnits:
             self, window: MainWindow) -> None:
         window.design_panel.select_part(0)
         row = window.design_panel.row("parts[0].mass_kg")
-        body = next(b for b in window.result.bodies if b.name == window.document.design.parts[0].name)  # type: ignore[union-attr]
+        name = window.document.design.parts[0].name
+        body = next(b for b in window.result.bodies if b.name == name)  # type: ignore[union-attr]
         metric = row.editor().lineEdit().placeholderText()  # type: ignore[attr-defined]
         assert float(metric) == pytest.approx(body.mass_kg, rel=1e-4)
         window.set_unit_system(UnitSystem.INCH_POUND)

@@ -17,7 +17,7 @@ import pytest
 from PySide6 import QtCore, QtGui
 
 from app.readout.readout_format import SECTIONS
-from app.report.pdf import report_html, widget_image, widget_picture, write_report_pdf
+from app.report.pdf import report_html, widget_image, write_report_pdf
 from app.views.swing_preview import SwingPreview
 from core import analyse, load_design
 from core.analysis import LOAD_CAUTION, SPRING_CAUTION
