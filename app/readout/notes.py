@@ -5,7 +5,7 @@ from __future__ import annotations
 from collections.abc import Sequence
 
 from PySide6.QtCore import Qt
-from PySide6.QtWidgets import QFrame, QLabel, QScrollArea, QVBoxLayout, QWidget
+from PySide6.QtWidgets import QFrame, QLabel, QScrollArea, QSplitter, QVBoxLayout, QWidget
 
 from app.readout.cells import bullets
 
@@ -37,6 +37,19 @@ class NotesPane(QScrollArea):
         self.caution_box.setVisible(bool(cautions))
         self.caution_text.setText(bullets(cautions))
 
+
+    def fit_in(self, splitter: QSplitter) -> None:
+        """Take only the height the notes need in ``splitter`` (at most half of it); the pane
+        above takes the rest."""
+        total = sum(splitter.sizes())
+        if total <= 0:
+            return
+        body = self.widget()
+        if body is not None:
+            body.adjustSize()
+        need = self.needed_height(self.viewport().width() or self.width())
+        notes = min(need, total // 2)
+        splitter.setSizes([total - notes, notes])
 
     def needed_height(self, width: int) -> int:
         """Height that shows every note whole at ``width`` px, px (0 when there are none)."""

@@ -33,6 +33,7 @@ from app.readout.cells import TreeCells, budget_rows, convert, delta_text
 from app.readout.figure_words import figure_label
 from app.readout.notes import NotesPane
 from app.readout.readout_format import SECTIONS, describe, format_value
+from app.readout.sections import arrange_sections, mark_section, toggle_section
 from core import Result
 from core.tuning import BudgetRanges
 
@@ -77,6 +78,7 @@ class ReadoutPanel(QWidget):
         self._baseline: Result | None = None
         self._items: dict[str, tuple[QTreeWidgetItem, str, str]] = {}
         self._labels: dict[str, str] = {}
+        self._purpose = ""
         self._budget_items: list[QTreeWidgetItem] = []
         self.budget_fields: dict[str, NumberField] = {}
         self._range_items: dict[str, QTreeWidgetItem] = {}
@@ -111,7 +113,7 @@ class ReadoutPanel(QWidget):
         self._fit_timer = QTimer(self)
         self._fit_timer.setSingleShot(True)
         self._fit_timer.setInterval(0)
-        self._fit_timer.timeout.connect(self._fit_notes_now)
+        self._fit_timer.timeout.connect(lambda: self.notes.fit_in(self.splitter))
 
     # ================================================================== building
     def _build_trim_row(self) -> QHBoxLayout:
@@ -195,9 +197,9 @@ class ReadoutPanel(QWidget):
                 labels.append(label)
                 labels.extend(figure_label(key, label, None, system)[0] for system in UnitSystem)
         tree.expandAll()
-        tree.itemExpanded.connect(self._mark_section)
-        tree.itemCollapsed.connect(self._mark_section)
-        tree.itemClicked.connect(self._toggle_section)
+        tree.itemExpanded.connect(lambda head: mark_section(self._cells, head))
+        tree.itemCollapsed.connect(lambda head: mark_section(self._cells, head))
+        tree.itemClicked.connect(toggle_section)
         tree.setColumnHidden(3, True)
         # The label column fits the longest label, measured once here (these labels never
         # change; measuring on every update was what made live drags slow): the tree may not
@@ -278,37 +280,6 @@ class ReadoutPanel(QWidget):
         needed = self.tree.minimumWidth() + margins.left() + margins.right()
         self.setMinimumWidth(max(self._own_min_width, needed))
 
-    def _mark_section(self, head: QTreeWidgetItem) -> None:
-        """A section's title says whether it is open (▾) or closed (▸)."""
-        if head.parent() is None:
-            title = head.text(0).lstrip("▾▸ ")
-            self._cells.set_text(head, 0, f"{'▾' if head.isExpanded() else '▸'} {title}")
-
-    def _toggle_section(self, item: QTreeWidgetItem, _column: int) -> None:
-        if item.parent() is None:
-            item.setExpanded(not item.isExpanded())
-
-    def arrange_for(self, purpose: str) -> None:
-        """Put the figures of the design's use first, so they fit without scrolling: a clock
-        opens with timekeeping, tuning and the rate budget; an exhibit with the swing and loads
-        (speed, sweep, loads, Foucault turn), its tuning closed. A click on a section's title
-        opens or closes it."""
-        if purpose == getattr(self, "_purpose", None):
-            return  # keep what the person opened or closed since
-        self._purpose = purpose
-        tree = self.tree
-        loads = self._heads["Swing and loads"]
-        index = tree.indexOfTopLevelItem(loads)
-        wanted = 0 if purpose == "exhibit" else tree.topLevelItemCount() - 1
-        if index != wanted:
-            tree.takeTopLevelItem(index)
-            tree.insertTopLevelItem(wanted, loads)
-            loads.setFirstColumnSpanned(True)
-        closed = ("Tuning",) if purpose == "exhibit" else ()
-        for title, head in self._heads.items():
-            head.setExpanded(title not in closed)
-            self._mark_section(head)
-
     @staticmethod
     def _section_item(tree: QTreeWidget, title: str, font: QFont,
                       brush: QBrush) -> QTreeWidgetItem:
@@ -357,7 +328,10 @@ class ReadoutPanel(QWidget):
         design = result.design
         exhibit = (design.purpose == "exhibit" or design.exhibit is not None
                    or design.target.target_period_s is None)  # no target: no time to keep
-        self.arrange_for("exhibit" if exhibit else "clock")
+        purpose = "exhibit" if exhibit else "clock"
+        if purpose != self._purpose:  # kept otherwise: what the person opened or closed
+            self._purpose = purpose
+            arrange_sections(self.tree, self._heads, self._cells, purpose)
         if not self.trim_field.hasFocus():
             self.trim_field.set_value(result.sensitivities.trim_height_m)
         self.show_compute_problem("")
@@ -397,20 +371,9 @@ class ReadoutPanel(QWidget):
             self.fit_notes()
 
     def fit_notes(self) -> None:
-        """Give the notes only the height they need (at most half the column); the figures
-        take the rest. Done once the layout has settled (their height depends on the width)."""
+        """Give the notes only the height they need (at most half the column), once the
+        layout has settled (their height depends on the width)."""
         self._fit_timer.start()
-
-    def _fit_notes_now(self) -> None:
-        total = sum(self.splitter.sizes())
-        if total <= 0:
-            return
-        body = self.notes.widget()
-        if body is not None:
-            body.adjustSize()
-        need = self.notes.needed_height(self.notes.viewport().width() or self.width())
-        notes = min(need, total // 2)
-        self.splitter.setSizes([total - notes, notes])
 
     def show_compute_problem(self, message: str) -> None:
         """Say that the design shown cannot be computed (figures stay at the last good one)."""
