@@ -17,7 +17,7 @@ from enum import StrEnum
 from core.fields import field_spec
 
 __all__ = ["UnitSystem", "FieldUnit", "field_unit", "kind_unit", "ReadoutUnit", "readout_unit",
-           "format_sig", "quantity_text", "METRES_PER_INCH", "METRES_PER_FOOT",
+           "format_sig", "quantity_text", "figure_text", "METRES_PER_INCH", "METRES_PER_FOOT",
            "KILOGRAMS_PER_POUND"]
 
 METRES_PER_INCH = 0.0254
@@ -218,6 +218,17 @@ _INCH_POUND_READOUT = {
     "°C": ReadoutUnit("°F", 1.8, 32.0),
     "hPa": ReadoutUnit("inHg", 1.0 / HPA_PER_INHG),
 }
+
+
+def figure_text(si: float, unit: str, system: UnitSystem, sig: int = 4) -> str:
+    """A figure given in SI ``unit`` as text in ``system``: ``figure_text(18.15, "m", IP)``
+    is “59.55 ft”; a length in metric under 1 cm in mm, in inch-pound over 10 ft in feet."""
+    if unit == "m":
+        if system is IP and abs(si) > 10 * METRES_PER_FOOT:
+            return f"{format_sig(si / METRES_PER_FOOT, sig)} ft"
+        return quantity_text(si, "length", system, sig=sig)
+    shown = readout_unit(unit, system)
+    return f"{format_sig(shown.convert(si), sig)} {shown.text}".rstrip()
 
 
 def readout_unit(unit: str, system: UnitSystem) -> ReadoutUnit:

@@ -87,6 +87,9 @@ class MainWindow(WindowMenus, WindowComputing, WindowFiles, WindowLayout, QMainW
         self.plots = make_views()
         for view in self.plots:
             view.attach_controls()  # on-screen controls (the swing preview's play, speed, line)
+            follow = getattr(view, "set_unit_system", None)
+            if follow is not None:  # a view giving figures in words takes the units
+                follow(self._system)
         self._stale_plots: set[int] = set()
         self.plot_area = PlotArea(cast(list[QWidget], self.plots), DEFAULT_ARRANGEMENT)
         self.plot_area.tabs.currentChanged.connect(lambda _index: self._refresh_plots())
