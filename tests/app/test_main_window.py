@@ -146,7 +146,7 @@ class TestBudgetRanges:
         # Example site 20 °C; default ranges ±5 K, ±30 hPa, ±0.1°.
         default_line = window.result.budget.lines[0]
         assert budget_rows(window)[0] == ("Temperature ±5 °C",
-                                          f"{default_line.spread_s_per_day:+.2f}")
+                                          f"{abs(default_line.spread_s_per_day):.2f}")
         type_into(qtbot, window.readout.budget_fields["temperature_k"], "10")
         qtbot.waitUntil(lambda: window.result.budget.lines[0].high == 30.0)
         expected = analyse(window.document.design,
@@ -156,7 +156,7 @@ class TestBudgetRanges:
         assert line == expected.lines[0]  # the same computation: equal to the last bit
         assert window.result.budget.lines[1:] == expected.lines[1:]  # the others untouched
         assert budget_rows(window)[0] == ("Temperature ±10 °C",
-                                          f"{expected.lines[0].spread_s_per_day:+.2f}")
+                                          f"{abs(expected.lines[0].spread_s_per_day):.2f}")
         assert budget_rows(window)[3] == ("Worst case (sum)",
                                           f"{expected.worst_case_s_per_day:.2f}")
         # A range twice as wide spreads the rate (nearly linear in temperature) about twice
