@@ -11,11 +11,11 @@ from __future__ import annotations
 
 import re
 
-from app.form.units import UnitSystem, field_unit, quantity_text
+from app.form.units import UnitSystem, field_unit, format_sig, quantity_text
 from core import DesignError
 from core.fields import FieldPath, FieldSpec, choice_label, field_spec
 
-__all__ = ["label_of", "help_of", "spec_of", "window_message", "range_sentence",
+__all__ = ["label_of", "help_of", "spec_of", "window_message", "range_sentence", "setting_reason",
            "choice_label"]
 
 _WHOLE_DESIGN = ("design", "file", "parts", "")
@@ -71,6 +71,21 @@ def range_sentence(spec: FieldSpec, system: UnitSystem, path: str = "") -> str:
     if high_open and not low_open:
         return f"must be at least {lo_text} and less than {hi_text}"
     return f"must be between {lo_text} and {hi_text}"
+
+
+_INTERVAL = re.compile(r"must be in \[\s*([-+0-9.e]+)\s*,\s*([-+0-9.e]+)\s*\]")
+
+
+def setting_reason(error: DesignError, system: UnitSystem) -> str:
+    """Why a window setting outside the design (a budget half-width) was refused, in the
+    display unit: “must be between 0 and 180 °F” rather than “temperature_k=200 …”."""
+    match = _INTERVAL.search(error.reason)
+    if match is None:
+        return _metres_shown(_without_keys(error.reason), system)
+    unit = field_unit(str(error.field), system)
+    lo, hi = (format_sig(unit.to_display(float(v)), 4) for v in match.groups())
+    gap = "" if unit.text in ("°", "") else " "
+    return f"must be between {lo} and {hi}{gap}{unit.text}"
 
 
 _OUT_OF_RANGE = re.compile(r"is out of range|must be in \[|must be in \(")

@@ -13,6 +13,7 @@ import time
 from dataclasses import asdict
 
 from app.document.settings import app_settings, store_budget_ranges
+from app.form.field_text import setting_reason
 from app.form.units import UnitSystem
 from app.window.parts import WindowParts
 from core import Design, DesignError, Result, analyse
@@ -118,7 +119,7 @@ class WindowComputing(WindowParts):
         try:
             ranges = budget_ranges(**values)
         except DesignError as exc:
-            self.readout.show_budget_problem(key, exc.reason)
+            self.readout.show_budget_problem(key, setting_reason(exc, self._system))
             return
         self._budget_ranges = ranges
         self.readout.set_budget_ranges(ranges)

@@ -194,10 +194,10 @@ class TestBudgetRanges:
         assert again.budget_ranges() == BudgetRanges()
 
     @pytest.mark.parametrize("key, text, words", [
-        ("temperature_k", "-2", "out of range"),
+        ("temperature_k", "-2", "must be between 0 and 100 °C"),
         ("pressure_hpa", "nan", "not a finite number"),
         ("arc_deg", "wide", "is not a number"),
-        ("arc_deg", "95", "out of range"),
+        ("arc_deg", "95", "must be between 0 and 90°"),
     ])
     def test_a_refused_range_is_marked_and_the_last_result_kept(
             self, window: MainWindow, qtbot, key: str, text: str, words: str) -> None:  # type: ignore[no-untyped-def]
