@@ -39,11 +39,13 @@ def figure_label(key: str, label: str, result: Result | None,
     factor = 1.0
     if system is UnitSystem.INCH_POUND and key in _INCH_POUND:
         label, factor = _INCH_POUND[key]
-    if key == TRIM_KEY and result is not None:
-        stem = label.removesuffix(" at tray")
+    if key in (TRIM_KEY, "trim_height_m") and result is not None:
         height = result.sensitivities.trim_height_m
         at_tray = any(p.kind == "weight" and abs(p.at_m - height) < _SAME_HEIGHT_M
                       for p in result.design.parts)
+        if key == "trim_height_m":
+            return (label if at_tray else "Trim quoted at"), factor
+        stem = label.removesuffix(" at tray")
         if at_tray:
             label = f"{stem} at tray"
         else:
