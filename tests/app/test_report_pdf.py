@@ -57,14 +57,16 @@ class TestContents:
         for needle in ("Atrium pendulum (preview)", "atrium_pendulum.pendulum.json",
                        "2031-04-05", "wire", "sphere", "Rod length 18 m",
                        "Rod diameter 2.5 mm", "Bob centre 18.15 m", "Latitude 47.3°",
-                       "Knife edge", "Carbon steel", "Rate budget", "Temperature",
+                       "Knife edge", "Music wire", "Rate budget", "Temperature",
                        "Air pressure", "Semi-arc", "Exhibit figures", "Warnings",
                        "qualified engineer"):
             assert needle in text, needle
         for _section, rows in SECTIONS:
             for _key, label, _unit, _fmt in rows:
                 # The atrium has no trim weight: its trim figure is quoted at the height chosen.
-                assert label.replace("at tray", "at 9.07 m") in text, label
+                shown = label.replace("at tray", "at 9.07 m").replace("Trim tray height",
+                                                                      "Trim quoted at")
+                assert shown in text, label
         # Figures as the readout formats them (app.readout.readout_format).
         assert "1442.45" in text            # peak pivot load, N
         assert "0.8151" in text             # bob peak speed, m/s
