@@ -18,7 +18,7 @@ from core.fields import field_spec
 
 __all__ = ["UnitSystem", "FieldUnit", "field_unit", "kind_unit", "ReadoutUnit", "readout_unit",
            "format_sig", "quantity_text", "figure_text", "METRES_PER_INCH", "METRES_PER_FOOT",
-           "KILOGRAMS_PER_POUND"]
+           "KILOGRAMS_PER_POUND", "NM_PER_LBF_IN"]
 
 METRES_PER_INCH = 0.0254
 METRES_PER_FOOT = 0.3048

@@ -13,6 +13,7 @@ from app.form.units import (
     KILOGRAMS_PER_POUND,
     METRES_PER_FOOT,
     METRES_PER_INCH,
+    NM_PER_LBF_IN,
     UnitSystem,
     field_unit,
     format_sig,
@@ -29,6 +30,7 @@ _INCH_POUND: dict[str, tuple[str, float]] = {
     "bob_sensitivity_s_per_day_per_mm": ("Bob lowered 1/32 in", METRES_PER_INCH / 32 / 1e-3),
     "elevation_s_per_day_per_100_m": ("Site 300 ft higher", 300 * METRES_PER_FOOT / 100.0),
     TRIM_KEY: ("1/10 oz trim", 0.1 * KILOGRAMS_PER_POUND / 16 / 1e-3),
+    "stiffness_s_per_day_per_n_m_per_rad": ("Spring stiffness +1 lbf·in/rad", NM_PER_LBF_IN),
 }
 
 

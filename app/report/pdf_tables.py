@@ -159,11 +159,11 @@ def design_tables(result: Result, system: UnitSystem) -> str:
         part_rows.append([
             td(f"<b>{html.escape(p['name'])}</b>"), td(html.escape(kind)),
             td(_fields(p, f"parts[{i}]", system, p["kind"], skip=("kind", "name", "shape"))),
-            td("—" if body is None else format_sig(mass.convert(body.mass_kg), 5), True),
-            td("—" if body is None else format_sig(length.convert(body.centre_m), 5), True)])
+            td("—" if body is None else format_sig(mass.convert(body.mass_kg), 4), True),
+            td("—" if body is None else format_sig(length.convert(body.centre_m), 4), True)])
     parts = table(["Part", "Kind", "Fields (as given, at the reference temperature)",
                    f"Mass {mass.text}", f"Centre {length.text}"], part_rows,
-                  (11, 13, 54, 11, 11))
+                  (11, 12, 53, 12, 12))
     return (general + "<p class='caption'>Parts, top to bottom as listed in the design; mass "
             "and centre as hung at the site temperature (used in every figure).</p>" + parts)
 
@@ -176,7 +176,8 @@ def budget_table(result: Result, system: UnitSystem) -> str:
         rows.append([
             td(html.escape(line.cause)),
             td(f"{format_sig(unit.convert(line.low), 5)} to "
-               f"{format_sig(unit.convert(line.high), 5)} {html.escape(unit.text)}"),
+               f"{format_sig(unit.convert(line.high), 5)}"
+               f"{'' if unit.text == '°' else ' '}{html.escape(unit.text)}"),
             td(format_value(line.rate_at_low_s_per_day, "{:+.3f}"), True),
             td(format_value(line.rate_at_high_s_per_day, "{:+.3f}"), True),
             td(format_value(abs(line.spread_s_per_day), "{:.3f}"), True)])
