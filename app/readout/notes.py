@@ -48,6 +48,9 @@ class NotesPane(QScrollArea):
         if body is not None:
             body.adjustSize()
         need = self.needed_height(self.viewport().width() or self.width())
+        self.setVisible(need > 0)  # no notes: the figures take the whole column
+        if need == 0:
+            return
         notes = min(need, total // 2)
         splitter.setSizes([total - notes, notes])
 
