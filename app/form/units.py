@@ -212,6 +212,8 @@ _INCH_POUND_READOUT = {
     "m/s": ReadoutUnit("ft/s", 1.0 / METRES_PER_FOOT),
     "m/s²": ReadoutUnit("ft/s²", 1.0 / METRES_PER_FOOT),
     "N": ReadoutUnit("lbf", 1.0 / NEWTONS_PER_LBF),
+    "N·m/rad": ReadoutUnit("lbf·in/rad", 1.0 / NM_PER_LBF_IN),
+    "MPa": ReadoutUnit("ksi", 1e6 / (1000.0 * PA_PER_PSI)),
     "J": ReadoutUnit("ft·lbf", 1.0 / (NEWTONS_PER_LBF * METRES_PER_FOOT)),
     "s/day/K": ReadoutUnit("s/day/°F", 1.0 / 1.8),
     "s/day/hPa": ReadoutUnit("s/day/inHg", HPA_PER_INHG),
