@@ -8,7 +8,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from app.form.labels import FIELD_LABELS
+from app.form.field_text import label_of
 from core import Design, design_to_dict
 from core.fileformat import field_range
 
@@ -56,13 +56,12 @@ def sweep_fields(design: Design) -> list[SweepField]:
             entries.insert(0, (f"parts[{i}].mount.centre_m", "centre_m", mount["centre_m"]))
         for path, key, value in entries:
             if isinstance(value, (int, float)) and not isinstance(value, bool):
-                label = FIELD_LABELS.get(key, key)
-                if key == "centre_m" and part.get("kind") == "bob":
-                    label = "Bob centre, below pivot"
+                label = label_of(path, part.get("kind"))
                 out.append(SweepField(path, f"{name}: {label}", _unit(key), float(value)))
     suspension = data.get("suspension", {})
     if suspension.get("kind") == "spring":
-        out.append(SweepField("suspension.stiffness_n_m_per_rad", "Spring stiffness",
+        out.append(SweepField("suspension.stiffness_n_m_per_rad",
+                              label_of("suspension.stiffness_n_m_per_rad"),
                               "N·m/rad", float(suspension["stiffness_n_m_per_rad"])))
     out.append(SweepField(PIVOT, "Pivot position along the pendulum", "m", 0.0))
     return out

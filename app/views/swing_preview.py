@@ -16,6 +16,7 @@ import pyqtgraph as pg
 from PySide6 import QtCore, QtGui, QtWidgets
 
 from app import theme
+from app.form.units import UnitSystem, figure_text
 from app.views.axes import style_axis
 from app.views.base import DRAG_MARGIN, KEEP_FILL, ResultView
 from app.views.swing_animation import (
@@ -72,6 +73,7 @@ class SwingPreview(ResultView, SwingAnimation):
         """``clock``: where the animation reads the time (default :class:`WallClock`)."""
         super().__init__(parent=parent)
         self.controls: SwingPreviewControls | None = None
+        self._system = UnitSystem.METRIC
         self._drawing: Drawing | None = None
         self._ghost: Drawing | None = None
         self._clock: MotionClock | None = None
@@ -286,7 +288,7 @@ class SwingPreview(ResultView, SwingAnimation):
         self._legend.setVisible(not self.compact)
         if self.compact:
             lines = [f"±{r.amplitude_deg:.3g}° · period {r.period_s:.4f} s",
-                     f"Peak pivot load {r.max_pivot_load_n:.4g} N (ideal)"]
+                     f"Peak pivot load {self._text(r.max_pivot_load_n, 'N')} (ideal)"]
             if self._ghost is not None:
                 lines.append("Grey: pinned baseline")
             self._set_info(f"<div style='font-size:8pt'>{'<br>'.join(lines)}</div>")
@@ -294,11 +296,12 @@ class SwingPreview(ResultView, SwingAnimation):
             return
         lines = [f"<b>{escape(r.design.name, quote=False)}</b>",
                  f"Semi-arc ±{r.amplitude_deg:.3g}° · period {r.period_s:.4f} s",
-                 f"Deepest point {self._deepest_m:.3f} m below pivot"]
+                 f"Deepest point {self._text(self._deepest_m, 'm')} below pivot"]
         if e.sweep_width_m is not None and r.peak_speed_m_s is not None:
-            lines.append(f"Bob centre sweep {e.sweep_width_m:.3f} m · "
-                         f"peak speed {r.peak_speed_m_s:.3f} m/s")
-        lines.append(f"Peak pivot load {r.max_pivot_load_n:.4g} N (ideal, no safety factor)")
+            lines.append(f"Bob centre sweep {self._text(e.sweep_width_m, 'm')} · "
+                         f"peak speed {self._text(r.peak_speed_m_s, 'm/s')}")
+        lines.append(f"Peak pivot load {self._text(r.max_pivot_load_n, 'N')} (ideal, no safety "
+                     "factor)")
         state = "playing" if self._playing else "paused"
         lines.append(f"Animation {state} at {SPEED_LABELS[self._speed]}"
                      + (" · grey: pinned baseline" if self._ghost is not None else ""))
@@ -369,6 +372,16 @@ class SwingPreview(ResultView, SwingAnimation):
             self._anchor()
             self._timer.start()
 
+    # ------------------------------------------------------------------ units
+    def set_unit_system(self, system: UnitSystem) -> None:
+        """Give the figures box and the clearance line's label in ``system``'s units."""
+        self._system = system
+        self._update_info()
+        self._on_line_moved()
+
+    def _text(self, si: float, unit: str) -> str:
+        return figure_text(si, unit, self._system)
+
     # ------------------------------------------------------------------ clearance
     def _on_line_moved(self) -> None:
         clearance = self.clearance_m()
@@ -378,10 +391,11 @@ class SwingPreview(ResultView, SwingAnimation):
         depth = self.clearance_line_m() or 0.0
         reached = clearance <= 0.0
         colour = WARNING_COLOUR if reached else LINE_COLOUR
+        at, gap = self._text(depth, "m"), self._text(abs(clearance), "m")
         if reached:
-            text = f"Line at {depth:.3f} m: the swing reaches it ({-clearance:.3f} m over)"
+            text = f"Line at {at}: the swing reaches it ({gap} over)"
         else:
-            text = f"Line at {depth:.3f} m · clearance {clearance:.3f} m"
+            text = f"Line at {at} · clearance {gap}"
         self._line.setPen(cosmetic_pen(colour, 2.5 if reached else 2.0))
         self._line_label.setColor(colour)
         self._line_label.setFormat(text.replace("{", "{{").replace("}", "}}"))
