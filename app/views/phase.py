@@ -147,7 +147,8 @@ class PhasePlot(ChartView):
         for curves, name in ((self.neighbours, others),
                              ([self.separatrix], "Separatrix"),
                              (self.over_the_top, "Over the top")):
-            seen = next((c for c in curves if on_view(*c.getData(), x_range, y_range)), None)
+            seen = next((c for c in curves
+                         if on_view(c.getData()[0], c.getData()[1], x_range, y_range)), None)
             if seen is not None:
                 entries.append((seen, name))
         self._name_in_legend(entries)
