@@ -52,9 +52,9 @@ def _library_loads(name: str, soname: str) -> bool:
         return ctypes.util.find_library(name) is not None
 
 
-def missing_xcb_libraries(finder: Callable[[str, str], bool] = _library_loads) -> list[str]:
+def missing_xcb_libraries(finder: Callable[[str, str], bool] | None = None) -> list[str]:
     """The Debian package names of the xcb libraries Qt's X11 plugin needs and that
-    ``finder(name, soname)`` cannot find; empty when Qt will not use X11 (another platform is
+    ``finder(name, soname)`` (default: the dynamic loader) cannot find; empty when Qt will not use X11 (another platform is
     chosen, no ``DISPLAY``, not Linux) or everything is there."""
     platform = os.environ.get("QT_QPA_PLATFORM", "")
     if not sys.platform.startswith("linux") or platform not in ("", "xcb"):
@@ -63,8 +63,9 @@ def missing_xcb_libraries(finder: Callable[[str, str], bool] = _library_loads) -
         return []
     if not platform and os.environ.get("WAYLAND_DISPLAY"):
         return []  # Qt prefers Wayland when it is there
+    found = finder or _library_loads
     return [package for name, (soname, package) in XCB_LIBRARIES.items()
-            if not finder(name, soname)]
+            if not found(name, soname)]
 
 
 def _refuse_without_xcb() -> bool:
