@@ -54,8 +54,9 @@ def _library_loads(name: str, soname: str) -> bool:
 
 def missing_xcb_libraries(finder: Callable[[str, str], bool] | None = None) -> list[str]:
     """The Debian package names of the xcb libraries Qt's X11 plugin needs and that
-    ``finder(name, soname)`` (default: the dynamic loader) cannot find; empty when Qt will not use X11 (another platform is
-    chosen, no ``DISPLAY``, not Linux) or everything is there."""
+    ``finder(name, soname)`` (default: the dynamic loader) cannot find; empty when Qt will
+    not use X11 (another platform is chosen, no ``DISPLAY``, not Linux) or everything is
+    there."""
     platform = os.environ.get("QT_QPA_PLATFORM", "")
     if not sys.platform.startswith("linux") or platform not in ("", "xcb"):
         return []

@@ -112,7 +112,7 @@ class TestMissingX11Libraries:
         assert launch.missing_xcb_libraries(lambda _n, _s: True) == []
 
     def test_other_platforms_need_nothing(self, x11, monkeypatch) -> None:  # type: ignore[no-untyped-def]
-        missing = lambda _n, _s: False  # noqa: E731
+        missing = lambda _n, _s: False
         assert len(launch.missing_xcb_libraries(missing)) == 3
         monkeypatch.setenv("QT_QPA_PLATFORM", "offscreen")
         assert launch.missing_xcb_libraries(missing) == []
