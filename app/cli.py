@@ -31,7 +31,7 @@ class _Parser(argparse.ArgumentParser):
 
 COMMAND_HELP = {
     "report": "print the readout of a design (or --json)",
-    "solve": "find the value of one field that meets a goal",
+    "solve": "find the value of one or two fields that meets the targets",
     "sweep": "period and rate against one field, as CSV",
     "export": "write plots, data and a PDF report, no display needed",
 }
@@ -76,14 +76,25 @@ def _tools_parser() -> _Parser:
     rep.add_argument("--budget-arc", type=float, default=0.1, metavar="DEG",
                      help="rate budget: semi-arc half-range around the working arc "
                           "(default 0.1)")
-    sol = sub.add_parser("solve", help="find the value of one field that meets a goal")
-    sol.add_argument("file")
-    sol.add_argument("--vary", required=True, metavar="FIELD",
-                     help="field path, e.g. parts[2].mount.centre_m")
-    goal = sol.add_mutually_exclusive_group(required=True)
-    goal.add_argument("--target-period", type=float, metavar="S")
-    goal.add_argument("--null", choices=["temperature"])
-    sol.add_argument("--write", metavar="OUT", help="write the design with the solved value")
+    sol = sub.add_parser(
+        "solve", help="find the value of one or two fields that meets the targets",
+        description="Vary one field to meet one target, or two fields to meet the period and "
+                    "null the temperature coefficient together. Each field's whole valid range "
+                    "is searched.")
+    sol.add_argument("file", help="design file")
+    sol.add_argument("--vary", required=True, action="append", metavar="FIELD",
+                     help="field path to vary, e.g. parts[2].mount.centre_m; give it twice "
+                          "to vary two fields together")
+    period = sol.add_mutually_exclusive_group()
+    period.add_argument("--target-period", type=float, metavar="S",
+                        help="period to meet at the working amplitude, s (default: the "
+                             "design's own target)")
+    period.add_argument("--target-bph", type=float, metavar="N",
+                        help="beats per hour to meet instead (7200 / period)")
+    sol.add_argument("--null", choices=["temperature"],
+                     help="make the temperature coefficient zero (alone with one field; "
+                          "with the period when two fields are varied)")
+    sol.add_argument("--write", metavar="OUT", help="write the design with the solved values")
     swp = sub.add_parser("sweep", help=COMMAND_HELP["sweep"],
                          description="Print the period and rate as CSV (one row per point) "
                                      "while one field of the design runs over a range; "
@@ -180,16 +191,31 @@ def _report(args: argparse.Namespace) -> int:
 def _solve(args: argparse.Namespace) -> int:
     from core import load_design
     from core.fileformat import read_design_dict, set_in_dict, write_text_atomic
-    from core.solve import solve_field
+    from core.solve import Targets, solve
 
     design = load_design(args.file)
-    goal = "temperature" if args.null else "period"
-    sol = solve_field(design, args.vary, goal, args.target_period)  # type: ignore[arg-type]
-    print(f"{sol.field} = {sol.value:.12g}  (was {sol.old_value:.12g})")
+    targets = Targets(period_s=args.target_period, beats_per_hour=args.target_bph,
+                      null_temperature=args.null == "temperature")
+    sol = solve(design, args.vary, targets)
+    for path, (lo, hi), (a, b) in zip(sol.fields, sol.searched, sol.usable, strict=True):
+        print(f"{path}: searched {lo:g} to {hi:g}, usable designs from {a:.6g} to {b:.6g}")
+    for path, old, new in zip(sol.fields, sol.old_values, sol.values, strict=True):
+        print(f"{path} = {new:.12g}  (was {old:.12g})")
+    if sol.other_roots:
+        print("other values that also meet the target: "
+              + ", ".join(f"{r:.9g}" for r in sol.other_roots))
     print(f"period {sol.period_s:.12f} s, temperature coefficient "
-          f"{sol.temperature_coefficient_s_per_day_per_k:+.5f} s/day/K")
+          f"{sol.temperature_coefficient_s_per_day_per_k:+.3e} s/day/K")
+    for goal, residual in zip(sol.goals, sol.residuals, strict=True):
+        print(f"residual: period {residual:+.3e} s" if goal == "period"
+              else f"residual: temperature coefficient {residual:+.3e} s/day/K")
+    if not sol.met:
+        print(f"penduline: {sol.fields[0]}: {sol.message}", file=sys.stderr)
+        return 2
     if args.write:
-        raw = set_in_dict(read_design_dict(args.file), sol.field, sol.value)
+        raw = read_design_dict(args.file)
+        for path, value in zip(sol.fields, sol.values, strict=True):
+            raw = set_in_dict(raw, path, value)
         write_text_atomic(args.write, json.dumps(raw, indent=2, ensure_ascii=False) + "\n")
         print(f"wrote {args.write}")
     return 0

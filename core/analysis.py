@@ -13,19 +13,24 @@ from typing import Any
 import numpy as np
 from numpy.typing import NDArray
 
-from .constants import SECONDS_PER_DAY, STANDARD_GRAVITY
-from .design import Bob, ClampMount, Design, Rod, beats_per_hour
+from .cable import CableFigures, cable_figures
+from .constants import SECONDS_PER_DAY
+from .design import Design, beats_per_hour
 from .errors import DesignError, guarded
 from .exhibit import ExhibitFigures, exhibit_figures
+from .exhibit_geometry import HEADROOM_M, SweptGeometry, swept_geometry
 from .fileformat import design_from_dict, design_to_dict
 from .mass_properties import Body
 from .model import PendulumState, pendulum_state
 from .motion import Motion, motion
 from .period import period_exact
 from .phase import PhasePortrait, phase_portrait
+from .pivot import PivotFigures, pivot_figures
 from .tuning import BudgetRanges, RateBudget, Sensitivities, rate_budget, sensitivities
 
-__all__ = ["Result", "PeriodCurve", "analyse", "REPORT_KEYS", "LOAD_CAUTION", "SPRING_CAUTION"]
+__all__ = ["Result", "PeriodCurve", "analyse", "REPORT_KEYS", "LOAD_CAUTION", "SPRING_CAUTION",
+           "AIRY_CAUTION", "HEAVY_LOAD_N", "LOAD_CAUTION_MASS_KG", "LONG_PENDULUM_M",
+           "STRESS_WARNING_RATIO", "finite_or_none"]
 
 FloatArray = NDArray[np.float64]
 
@@ -42,6 +47,16 @@ LOAD_CAUTION = (
     "must be designed and checked by a qualified engineer under local building codes.")
 SPRING_CAUTION = (
     "Suspension-spring and knife-edge stresses are outside what Penduline checks or certifies.")
+AIRY_CAUTION = (
+    "A swing started with the least sideways motion becomes elliptical and its plane turns by "
+    "itself (Airy 1851), adding to or hiding the Foucault turn: release it from rest, by "
+    "burning a thread or an electromagnet.")
+
+# Where the cautions apply. Thresholds: common practice, no source.
+LOAD_CAUTION_MASS_KG = 10.0   # a pendulum this heavy: the engineer caution on loads
+HEAVY_LOAD_N = 200.0          # weight above which people must keep out of the swept area
+LONG_PENDULUM_M = 3.0         # reaching this far below the pivot: longer than any case clock
+STRESS_WARNING_RATIO = 0.2    # peak stress above 1/5 of the strength (a safety factor under 5)
 
 # Dense where clocks swing (0.05°–10°, geometric), even to 170°, dense again towards 180°.
 _CURVE_AMPLITUDES_DEG = np.concatenate([np.geomspace(0.05, 10.0, 160),
@@ -97,10 +112,15 @@ class Result:
     motion: Motion
     phase: PhasePortrait
     period_curve: PeriodCurve
+    # exhibit planning (issue 13) and the pivot (issue 17)
+    purpose: str = "clock"
+    geometry: SweptGeometry | None = None
+    cable: CableFigures | None = None
+    pivot: PivotFigures | None = None
 
     def report_dict(self) -> dict[str, Any]:
         """The JSON form of ``penduline report --json``: DESIGN §4 keys first, then the rest."""
-        out: dict[str, Any] = {key: _plain(getattr(self, key)) for key in REPORT_KEYS}
+        out: dict[str, Any] = {key: getattr(self, key) for key in REPORT_KEYS}
         s, e = self.sensitivities, self.exhibit
         out.update({
             "name": self.design.name,
@@ -123,14 +143,56 @@ class Result:
             "rate_budget_rss_s_per_day": self.budget.root_sum_square_s_per_day,
             "cautions": list(self.cautions),
         })
-        out.update({f.name: _plain(getattr(e, f.name)) for f in fields(e)
-                    if f.name not in out})
+        out.update({f.name: getattr(e, f.name) for f in fields(e) if f.name not in out})
+        out.update(self._exhibit_keys())
+        return finite_or_none(out)
+
+    def _exhibit_keys(self) -> dict[str, Any]:
+        """Report keys of the exhibit planning and the pivot (null where not defined)."""
+        e, g, c, p = self.exhibit, self.geometry, self.cable, self.pivot
+        half = e.time_to_half_amplitude_s
+        out: dict[str, Any] = {
+            "purpose": self.purpose,
+            "foucault_deg_per_hour": e.foucault_deg_per_hour,
+            "foucault_hours_per_turn": e.foucault_turn_h,
+            "time_to_half_amplitude_h": None if half is None else half / 3600.0,
+        }
+        if g is not None:
+            out.update({"bob_rise_m": g.bob_rise_m, "lowest_point_m": g.lowest_point_m,
+                        "outer_sweep_m": g.outer_sweep_m,
+                        "floor_clearance_m": g.floor_clearance_m,
+                        "barrier_margin_m": g.barrier_margin_m,
+                        "reach_below_headroom_m": g.reach_below_headroom_m,
+                        "visitors_within_reach": g.within_reach})
+        if c is not None:
+            out.update({"stretch_m": c.stretch_m,
+                        "stretch_rate_s_per_day": c.stretch_rate_s_per_day,
+                        "peak_stress_pa": c.peak_stress_pa,
+                        "peak_stress_part": c.peak_stress_part,
+                        "peak_stress_ratio": c.peak_stress_ratio,
+                        "peak_stress_ratio_basis": c.peak_stress_ratio_basis})
+        if p is not None:
+            out.update({"radius_of_gyration_m": p.radius_of_gyration_m,
+                        "shortest_period_pivot_m": p.shortest_period_pivot_m,
+                        "shortest_period_small_s": p.shortest_period_small_s,
+                        "conjugate_pivot_m": p.conjugate_pivot_m,
+                        "pivot_sensitivity_s_per_day_per_mm":
+                            p.pivot_sensitivity_s_per_day_per_mm})
         return out
 
 
-def _plain(value: Any) -> Any:
-    if isinstance(value, tuple):
-        return list(value)
+def finite_or_none(value: Any) -> Any:
+    """``value`` made fit to leave the core: every float that is not finite (NaN, ±inf)
+    becomes None, everywhere — in dicts, lists, tuples (which become lists), numpy arrays and
+    numpy scalars (which become Python numbers). Use it on anything exported (JSON, CSV)."""
+    if isinstance(value, dict):
+        return {k: finite_or_none(v) for k, v in value.items()}
+    if isinstance(value, (list, tuple)):
+        return [finite_or_none(v) for v in value]
+    if isinstance(value, np.ndarray):
+        return [finite_or_none(v) for v in value.tolist()]
+    if isinstance(value, np.generic):
+        value = value.item()
     if isinstance(value, float) and not math.isfinite(value):
         return None
     return value
@@ -157,16 +219,14 @@ def _warnings(design: Design, state: PendulumState) -> tuple[str, ...]:
     if amp > 90.0:
         out.append(f"Semi-arc {amp:g}° is above 90°: a cable or chain would go slack at release; "
                    "only a rigid rod can swing this far.")
-    if amp >= 150.0:
+    # The period grows without bound only where the potential A(1 − cos θ) + kθ²/2 has a
+    # maximum at or below 180°: V′ = A sin θ + kθ > 0 on (0°, 180°] for any k > 0, so only
+    # without a spring (the maximum at 180°).
+    if amp >= 150.0 and state.stiffness_n_m_per_rad <= 0.0:
         out.append(f"Semi-arc {amp:g}° is near 180°: the period grows without bound there and "
                    "the smallest change of arc changes it greatly.")
-    for p in design.parts:
-        if isinstance(p, Bob) and isinstance(p.mount, ClampMount):
-            rod = design.part(p.mount.on)
-            assert isinstance(rod, Rod)
-            if p.mount.centre_m > rod.top_m + rod.length_m:
-                out.append(f"Bob '{p.name}' is centred below the end of rod '{rod.name}': it "
-                           "hangs from the rod's end.")
+    # A bob hung at the end of a cable is ordinary: no warning (the validator refuses a bob
+    # whose body does not reach its rod).
     if design.suspension.kind == "spring" and amp > 10.0:
         out.append(f"A suspension spring at {amp:g}° semi-arc bends far beyond its linear range; "
                    "the constant-stiffness model is optimistic there.")
@@ -180,18 +240,59 @@ def _warnings(design: Design, state: PendulumState) -> tuple[str, ...]:
     return tuple(out)
 
 
-def _cautions(design: Design, exhibit: ExhibitFigures) -> tuple[str, ...]:
-    out = [LOAD_CAUTION]
+def _purpose(design: Design) -> str:
+    return design.purpose
+
+
+def _room(design: Design) -> tuple[float | None, float | None]:
+    """(pivot height above the floor, barrier radius), m, from the design's exhibit section."""
+    if design.exhibit is None:
+        return None, None
+    return design.exhibit.pivot_above_floor_m, design.exhibit.barrier_radius_m
+
+
+def _exhibit_warnings(design: Design, geometry: SweptGeometry, cable: CableFigures
+                      ) -> tuple[str, ...]:
+    out = []
+    floor, barrier = _room(design)
+    if geometry.floor_clearance_m is not None and geometry.floor_clearance_m <= 0.0:
+        out.append(f"The swing reaches the floor: its lowest point is "
+                   f"{-geometry.floor_clearance_m:.3g} m below it.")
+    if geometry.barrier_margin_m is not None and geometry.barrier_margin_m < 0.0:
+        out.append(f"The pendulum swings {-geometry.barrier_margin_m:.3g} m beyond the barrier.")
+    if geometry.within_reach:
+        where = ("" if barrier is None else
+                 f" at {geometry.reach_below_headroom_m:.3g} m from the centre, outside the "
+                 f"barrier ({barrier:.3g} m)")
+        out.append(f"Visitors can be hit: the pendulum passes less than {HEADROOM_M:g} m above "
+                   f"the floor{where}"
+                   + (" and there is no barrier" if barrier is None else "")
+                   + f". Keep people out of its swept area ({HEADROOM_M:g} m: common practice, "
+                   "above the 2.03 m minimum head clearance of the 2010 ADA Standards §307.4).")
+    ratio = cable.peak_stress_ratio
+    if ratio is not None and ratio >= STRESS_WARNING_RATIO:
+        out.append(f"Peak stress in '{cable.peak_stress_part}' is {100 * ratio:.3g} % of its "
+                   f"{cable.peak_stress_ratio_basis} strength: less than a safety factor of "
+                   f"{1 / STRESS_WARNING_RATIO:g}.")
+    return tuple(out)
+
+
+def _cautions(design: Design, exhibit: ExhibitFigures, geometry: SweptGeometry,
+              mass_kg: float) -> tuple[str, ...]:
+    """Each caution where it applies (thresholds: common practice, no source)."""
+    exhibit_use = _purpose(design) == "exhibit"
+    long = geometry.lowest_point_m >= LONG_PENDULUM_M
+    out = []
+    if exhibit_use or long or mass_kg >= LOAD_CAUTION_MASS_KG:
+        out.append(LOAD_CAUTION)
     if design.suspension.kind == "spring":
         out.append(SPRING_CAUTION)
-    if exhibit.static_load_n > 200.0:
-        kg = exhibit.static_load_n / STANDARD_GRAVITY
-        out.append(f"Heavy pendulum ({kg:.3g} kg): keep people out "
-                   "from under it and out of its sweep while it is hung, tested or stopped.")
-    if design.site.latitude_deg != 0.0:
-        out.append("A swing started with the least sideways motion becomes elliptical and its "
-                   "plane turns by itself (Airy 1851), adding to or hiding the Foucault turn: "
-                   "release it from rest, by burning a thread or an electromagnet.")
+    if exhibit.static_load_n > HEAVY_LOAD_N:
+        out.append(f"Heavy pendulum ({mass_kg:.4g} kg): keep people out from under it and out "
+                   "of its swept area while it is hung, tested or stopped and while it runs; "
+                   "a barrier around the swept area keeps visitors out.")
+    if design.site.latitude_deg != 0.0 and (exhibit_use or long):
+        out.append(AIRY_CAUTION)
     return tuple(out)
 
 
@@ -235,8 +336,13 @@ def analyse(design: Design | dict[str, Any], *, trim_height_m: float | None = No
 def _analyse(design: Design, trim_height_m: float | None, ranges: BudgetRanges) -> Result:
     state = pendulum_state(design)
     sens = sensitivities(design, state, trim_height_m)
+    budget = rate_budget(design, state, ranges)
     exhibit = exhibit_figures(state)
     mass = state.mass
+    floor, barrier = _room(design)
+    geometry = swept_geometry(state.bodies, state.amplitude_rad, state.main_bob(),
+                              pivot_above_floor_m=floor, barrier_radius_m=barrier)
+    cable = cable_figures(design, state, exhibit.peak_angular_velocity_rad_s)
     return Result(
         design=design,
         mass_kg=mass.mass_kg,
@@ -255,15 +361,16 @@ def _analyse(design: Design, trim_height_m: float | None, ranges: BudgetRanges) 
         bob_sensitivity_s_per_day_per_mm=sens.bob_s_per_day_per_mm,
         peak_speed_m_s=exhibit.peak_speed_m_s,
         max_pivot_load_n=exhibit.max_pivot_load_n,
-        warnings=_warnings(design, state),
+        warnings=(_warnings(design, state) + _exhibit_warnings(design, geometry, cable)
+                  + budget.notes),
         target_period_s=state.target_period_s,
         amplitude_deg=design.swing.amplitude_deg,
         air_density_kg_m3=state.air_density_kg_m3,
         effective_inertia_kg_m2=state.inertia_kg_m2,
         torque_n_m=state.torque_n_m,
-        cautions=_cautions(design, exhibit),
+        cautions=_cautions(design, exhibit, geometry, mass.mass_kg),
         sensitivities=sens,
-        budget=rate_budget(design, state, ranges),
+        budget=budget,
         exhibit=exhibit,
         bodies=state.bodies,
         motion=motion(state.inertia_kg_m2, state.torque_n_m, state.stiffness_n_m_per_rad,
@@ -272,4 +379,8 @@ def _analyse(design: Design, trim_height_m: float | None, ranges: BudgetRanges) 
         phase=phase_portrait(state.inertia_kg_m2, state.torque_n_m, state.stiffness_n_m_per_rad,
                              state.amplitude_rad),
         period_curve=period_curve(state),
+        purpose=_purpose(design),
+        geometry=geometry,
+        cable=cable,
+        pivot=pivot_figures(state),
     )

@@ -66,8 +66,9 @@ class Blades:
 class Suspension:
     """``knife_edge`` (ideal hinge) or ``spring`` (restoring torque stiffness·θ, N·m/rad).
 
-    A spring may be given by its ``blades`` (format 2); its stiffness is then derived from them
-    when the design is read (see :mod:`core.validate`) and the file keeps the stiffness null.
+    A spring may be given by its ``blades`` (format 2); ``stiffness_n_m_per_rad`` is then 0 here,
+    the file keeps it null, and the model derives the stiffness from the blades under the
+    pendulum's weight (:func:`core.model.suspension_stiffness`).
     """
 
     kind: Literal["knife_edge", "spring"] = "knife_edge"

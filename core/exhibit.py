@@ -6,14 +6,18 @@ Energy of the swing E = V(θ₀) = A(1 − cos θ₀) + kθ₀²/2 (J). Peak ang
 ½ I ω_max² = E; peak speed of a point at radius r is r ω_max. Pivot load at the lowest point of
 a rigid body: M (g + h ω_max²); for a point mass this is m g (3 − 2 cos θ₀).
 
-Damping of quality factor Q (A. P. French, *Vibrations and Waves*, ch. 3 [pub, memory]):
-amplitude envelope exp(−ω₀ t / 2Q), so the time to half amplitude is 2Q ln 2 / ω₀ and the
-cycles to half amplitude Q ln 2 / π. The energy fraction lost in one damped cycle is exactly
-1 − exp(−2π / (Q √(1 − 1/4Q²))) (≈ 2π/Q at high Q; 0.467 at Q = 10). Drive power to sustain
-the arc = energy lost per cycle / period.
+Damping of quality factor Q: drive power, energy lost per cycle and the free decay to half
+the arc at any arc, from the damping torque integrated over the swing itself
+(:mod:`core.decay`); for small arcs they reduce to 2πE/(QT), 2Q ln 2/ω₀ and Q ln 2/π cycles
+(A. P. French, *Vibrations and Waves*, ch. 3 [pub, memory]).
+
+Sweep of the bob centre: 2c·sin(min(θ₀, 90°)) — above 90° the centre passes the horizontal and
+the width is 2c (plain geometry). The deepest point is that of the whole outline over the swing
+(:mod:`core.exhibit_geometry`).
 
 Foucault: the swing plane turns 360° sin φ per sidereal day (86164.0905 s) (Foucault 1851;
-standard texts [pub, memory]).
+standard texts [pub, memory]), clockwise seen from above in the northern hemisphere (positive
+here), counter-clockwise in the southern (negative).
 """
 
 from __future__ import annotations
@@ -21,6 +25,8 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
+from .decay import decay_figures
+from .exhibit_geometry import centre_sweep_width_m, deepest_and_reach_m
 from .model import PendulumState
 
 __all__ = ["ExhibitFigures", "exhibit_figures", "SIDEREAL_DAY_S"]
@@ -42,10 +48,13 @@ class ExhibitFigures:
     pivot_load_ratio : max load over static weight.
     release_axial_load_n : load along the pendulum at release, N (negative: a cable would be
         slack).
-    sweep_width_m : horizontal distance between the bob centre's two extreme positions, m.
-    energy_lost_per_cycle_j, drive_power_w : with Q; None without.
-    cycles_to_half_amplitude, time_to_half_amplitude_s : with Q; None without.
+    sweep_width_m : width of the path swept by the bob centre, m (2c above 90°).
+    lowest_point_m : deepest point of any part's outline during the swing, m below the pivot.
+    energy_lost_per_cycle_j, drive_power_w : taken by the damping in one cycle at the arc, and
+        the power that sustains the arc; with Q, None without.
+    cycles_to_half_amplitude, time_to_half_amplitude_s : free decay to half the arc; with Q.
     foucault_turn_h : hours for the swing plane to turn 360° (None at the equator).
+    foucault_deg_per_hour : turn of the swing plane, °/h, positive clockwise seen from above.
     """
 
     energy_j: float
@@ -62,17 +71,18 @@ class ExhibitFigures:
     cycles_to_half_amplitude: float | None
     time_to_half_amplitude_s: float | None
     foucault_turn_h: float | None
+    foucault_deg_per_hour: float = 0.0
 
 
-def _damping(state: PendulumState, energy: float
+def _damping(state: PendulumState
              ) -> tuple[float | None, float | None, float | None, float | None]:
     q = state.design.swing.quality_factor
     if q is None:
         return None, None, None, None
-    fraction = 1.0 - math.exp(-2.0 * math.pi / (q * math.sqrt(1.0 - 1.0 / (4.0 * q * q))))
-    lost = energy * fraction
-    omega0 = 2.0 * math.pi / state.period_small_s
-    return lost, lost / state.period_s, q * math.log(2.0) / math.pi, 2 * q * math.log(2.0) / omega0
+    d = decay_figures(state.inertia_kg_m2, state.torque_n_m, state.stiffness_n_m_per_rad,
+                      state.amplitude_rad, q)
+    return (d.energy_lost_per_cycle_j, d.drive_power_w, d.cycles_to_half_amplitude,
+            d.time_to_half_amplitude_s)
 
 
 def exhibit_figures(state: PendulumState) -> ExhibitFigures:
@@ -84,23 +94,23 @@ def exhibit_figures(state: PendulumState) -> ExhibitFigures:
     bob = state.main_bob()
     mass, h, g = state.mass.mass_kg, state.mass.centre_of_mass_m, state.g_m_s2
     load = mass * (g + h * omega_max**2)
-    lowest = max(b.bottom_m for b in state.bodies)
-    lat = state.design.site.latitude_deg
-    sin_lat = abs(math.sin(math.radians(lat)))
-    lost, power, cycles, half_time = _damping(state, energy)
+    lowest = deepest_and_reach_m(state.bodies, theta0)[0]
+    sin_lat = math.sin(math.radians(state.design.site.latitude_deg))
+    lost, power, cycles, half_time = _damping(state)
     return ExhibitFigures(
         energy_j=energy,
         peak_angular_velocity_rad_s=omega_max,
-        peak_speed_m_s=None if bob is None else bob.centre_m * omega_max,
+        peak_speed_m_s=None if bob is None else abs(bob.centre_m) * omega_max,  # a magnitude
         static_load_n=mass * g,
         max_pivot_load_n=load,
         pivot_load_ratio=load / (mass * g),
         release_axial_load_n=mass * g * math.cos(theta0),
-        sweep_width_m=None if bob is None else 2.0 * bob.centre_m * math.sin(theta0),
+        sweep_width_m=None if bob is None else centre_sweep_width_m(bob.centre_m, theta0),
         lowest_point_m=lowest,
         energy_lost_per_cycle_j=lost,
         drive_power_w=power,
         cycles_to_half_amplitude=cycles,
         time_to_half_amplitude_s=half_time,
-        foucault_turn_h=None if sin_lat < 1e-12 else SIDEREAL_DAY_S / sin_lat / 3600.0,
+        foucault_turn_h=None if abs(sin_lat) < 1e-12 else SIDEREAL_DAY_S / abs(sin_lat) / 3600.0,
+        foucault_deg_per_hour=360.0 * sin_lat / (SIDEREAL_DAY_S / 3600.0),
     )

@@ -349,7 +349,9 @@ CHOICES: dict[str, dict[str, str]] = {
     "target": {"period": "Period", "beats_per_hour": "Beats per hour", "none": "No target"},
     "material": {"steel": "Steel", "brass": "Brass", "invar": "Invar",
                  "aluminium": "Aluminium", "lead": "Lead", "cast_iron": "Cast iron",
-                 "wood": "Wood", "fused_silica": "Fused silica"},
+                 "wood": "Wood", "fused_silica": "Fused silica", "zinc": "Zinc",
+                 "copper": "Copper", "tin": "Tin", "stainless_steel": "Stainless steel",
+                 "music_wire": "Music wire", "spring_steel": "Spring steel"},
 }
 
 

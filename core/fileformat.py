@@ -13,10 +13,10 @@ import copy
 import json
 import os
 import stat
-import tempfile
 from pathlib import Path
 from typing import Any
 
+from .atomic_write import write_text_atomic as _atomic_write
 from .design import Bob, ClampMount, Design, Part, Rod, Sleeve
 from .errors import DesignError, guarded
 from .fields import FieldPath, field_spec
@@ -258,25 +258,7 @@ def write_text_atomic(path: str | os.PathLike[str], text: str) -> None:
     DesignError
         ``field='file'`` when the folder cannot be written; the old file is then untouched.
     """
-    target = Path(path)
-    tmp_name = None
-    try:
-        fd, tmp_name = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp",
-                                        dir=target.parent if str(target.parent) else ".")
-        with os.fdopen(fd, "w", encoding="utf-8", newline="\n") as fh:
-            fh.write(text)
-            fh.flush()
-            os.fsync(fh.fileno())
-        os.replace(tmp_name, target)
-        tmp_name = None
-    except OSError as exc:
-        raise DesignError("file", f"could not save {target}: {exc.strerror or exc}") from None
-    finally:
-        if tmp_name is not None:
-            try:
-                os.unlink(tmp_name)
-            except OSError:
-                pass
+    _atomic_write(path, text)  # the one writer: core.atomic_write
 
 
 # ----------------------------------------------------------------------------- field paths

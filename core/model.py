@@ -10,6 +10,7 @@ import math
 from dataclasses import dataclass
 
 from .air import air_density
+from .blades import blade_stiffness_n_m_per_rad
 from .constants import SECONDS_PER_DAY
 from .design import Design
 from .errors import DesignError
@@ -17,7 +18,22 @@ from .gravity import normal_gravity
 from .mass_properties import Body, MassProperties, layout, mass_properties
 from .period import period_at, period_exact_and_slopes, period_small
 
-__all__ = ["PendulumState", "pendulum_state", "SECONDS_PER_DAY"]
+__all__ = ["PendulumState", "pendulum_state", "suspension_stiffness", "SECONDS_PER_DAY"]
+
+def suspension_stiffness(design: Design, tension_n: float) -> float:
+    """The suspension's restoring stiffness, N·m/rad, under a pull of ``tension_n`` (N).
+
+    A spring given by its blades is a blade in bending under tension
+    (:func:`core.blades.blade_stiffness_n_m_per_rad`, Young's modulus from the material table);
+    otherwise the design's own stiffness (0 for a knife edge).
+    """
+    blades = design.suspension.blades
+    if blades is None:
+        return design.suspension.stiffness_n_m_per_rad
+    return blade_stiffness_n_m_per_rad(
+        blades.count, design.material(blades.material).youngs_modulus_pa, blades.width_m,
+        blades.thickness_m, blades.free_length_m, tension_n)
+
 
 @dataclass(frozen=True)
 class PendulumState:
@@ -122,10 +138,9 @@ def pendulum_state(design: Design, *, temperature_c: float | None = None,
     if hang_either_way:
         torque = abs(torque)
     if not torque > 0.0 or not math.isfinite(torque):
-        raise DesignError("parts", "the centre of mass must hang below the pivot (the design's "
-                                   f"first moment Σ m·z is {mass.first_moment_kg_m:.4g} kg·m)")
+        raise _not_hanging(design, bodies, mass, rho)
     inertia = mass.effective_inertia_kg_m2
-    k = design.suspension.stiffness_n_m_per_rad
+    k = suspension_stiffness(design, mass.mass_kg * g)
     theta0 = math.radians(amp)
     if slopes:
         periods, slope_a, slope_k = period_exact_and_slopes(inertia, torque, k, [theta0])
@@ -134,3 +149,25 @@ def pendulum_state(design: Design, *, temperature_c: float | None = None,
         period, d_a, d_k = period_at(inertia, torque, k, theta0), math.nan, math.nan
     return PendulumState(design, t, p, g, rho, bodies, mass, inertia, torque, k, theta0,
                          period, period_small(inertia, torque, k), d_a, d_k)
+
+
+def _not_hanging(design: Design, bodies: tuple[Body, ...], mass: MassProperties,
+                 rho: float) -> DesignError:
+    """The refusal of a design that does not hang below its pivot, naming the real cause:
+    the centre of mass above the pivot, or — when the weight alone would hang — the air's
+    buoyancy (a part lighter than the air it displaces, named, or the whole)."""
+    if not mass.first_moment_kg_m > 0.0:
+        return DesignError("parts", "the centre of mass must hang below the pivot (the "
+                                    f"design's first moment Σ m·z is "
+                                    f"{mass.first_moment_kg_m:.4g} kg·m)")
+    names = [p.name for p in design.parts]
+    for b in bodies:
+        air = rho * b.volume_m3
+        if b.mass_kg <= air and b.name in names:
+            return DesignError(f"parts[{names.index(b.name)}]",
+                               f"the part '{b.name}' is lighter than the air it displaces "
+                               f"({b.mass_kg:.3g} kg against {air:.3g} kg of air at "
+                               f"{rho:.4g} kg/m³), so the pendulum does not hang down")
+    return DesignError("parts", "the air buoys the pendulum more than its weight pulls it down "
+                                f"(air {rho:.4g} kg/m³): it does not hang below the pivot")
+

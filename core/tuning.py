@@ -9,6 +9,7 @@ length, the air and the gravity model move together.
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
 
 from .constants import SECONDS_PER_DAY
@@ -115,7 +116,21 @@ def _centred(design: Design, state: PendulumState, key: str, value: float, step:
         lo, hi = lowest, lowest + step
     # Against the state's own period when there is no target: a clock's change of rate.
     target = state.target_period_s or state.period_s
-    lo_t, hi_t = _period_with(design, key, lo), _period_with(design, key, hi)
+    try:
+        lo_t, hi_t = _period_with(design, key, lo), _period_with(design, key, hi)
+    except DesignError:
+        # One end would not hang (air just dense enough to float a part): a one-sided
+        # difference from the site's own value, scaled to the step.
+        ends = []
+        for end in (lo, hi):
+            try:
+                ends.append((end, _period_with(design, key, end)))
+            except DesignError:
+                ends.append((value, state.period_s))
+        (lo, lo_t), (hi, hi_t) = ends
+        if hi == lo:
+            raise
+        return SECONDS_PER_DAY * (target / hi_t - target / lo_t) * step / (hi - lo)
     return SECONDS_PER_DAY * (target / hi_t - target / lo_t)
 
 
@@ -182,6 +197,7 @@ class RateBudget:
     """Spread of rate from each cause, and the totals (worst case and root-sum-square)."""
 
     lines: tuple[BudgetLine, ...]
+    notes: tuple[str, ...] = ()  # lines left out, and why
 
     @property
     def worst_case_s_per_day(self) -> float:
@@ -189,7 +205,7 @@ class RateBudget:
 
     @property
     def root_sum_square_s_per_day(self) -> float:
-        return sum(line.spread_s_per_day**2 for line in self.lines) ** 0.5
+        return math.hypot(*(line.spread_s_per_day for line in self.lines))  # no overflow
 
 
 @dataclass(frozen=True)
@@ -222,26 +238,52 @@ def budget_ranges(temperature_k: float = 5.0, pressure_hpa: float = 30.0, arc_de
 
 def rate_budget(design: Design, state: PendulumState,
                 ranges: BudgetRanges = BudgetRanges()) -> RateBudget:
-    """Rate at each end of each range, the other conditions held at the site's values."""
+    """Rate at each end of each range, the other conditions held at the site's values.
+
+    An end of a range at which the design would not hang (air dense enough to float a part,
+    …) cannot be rated. With the default ranges that line is left out and a note says why
+    (a design valid at its site is never refused for its budget); with ranges the caller chose
+    the request is refused, naming the range.
+
+    Raises
+    ------
+    DesignError
+        ``budget.temperature_k``, ``budget.pressure_hpa`` or ``budget.arc_deg``: "at 1043 hPa
+        (…) the design would …".
+    """
     target = state.target_period_s or state.period_s
     site = design.site
     amp = design.swing.amplitude_deg
+    defaults = ranges == BudgetRanges()
+    notes: list[str] = []
 
-    def line(cause: str, unit: str, key: str, low: float, high: float) -> BudgetLine:
-        r_lo = SECONDS_PER_DAY * (target / _period_with(design, key, low) - 1.0)
-        r_hi = SECONDS_PER_DAY * (target / _period_with(design, key, high) - 1.0)
-        return BudgetLine(cause, unit, low, high, r_lo, r_hi)
+    def line(cause: str, unit: str, key: str, name: str, low: float, high: float
+             ) -> BudgetLine | None:
+        rates = []
+        for value in (low, high):
+            try:
+                period = _period_with(design, key, value)
+            except DesignError as exc:
+                where = (f"at {value:g} {unit} (the {cause.lower()} range {low:g} to {high:g} "
+                         f"{unit}) the design would not hang as it does at its site: "
+                         f"{exc.reason}")
+                if not defaults:
+                    raise DesignError(f"budget.{name}", where + "; narrow the range") from None
+                notes.append(f"Rate budget: {cause.lower()} left out — {where}.")
+                return None
+            rates.append(SECONDS_PER_DAY * (target / period - 1.0))
+        return BudgetLine(cause, unit, low, high, rates[0], rates[1])
 
     t, p = site.temperature_c, site.pressure_hpa
     lines = [
-        line("Temperature", "°C", "temperature_c", t - ranges.temperature_k,
+        line("Temperature", "°C", "temperature_c", "temperature_k", t - ranges.temperature_k,
              t + ranges.temperature_k),
-        line("Air pressure", "hPa", "pressure_hpa", max(0.0, p - ranges.pressure_hpa),
-             p + ranges.pressure_hpa),
-        line("Semi-arc", "°", "amplitude_deg", max(1e-6, amp - ranges.arc_deg),
+        line("Air pressure", "hPa", "pressure_hpa", "pressure_hpa",
+             max(0.0, p - ranges.pressure_hpa), p + ranges.pressure_hpa),
+        line("Semi-arc", "°", "amplitude_deg", "arc_deg", max(1e-6, amp - ranges.arc_deg),
              min(179.9, amp + ranges.arc_deg)),
     ]
-    return RateBudget(tuple(lines))
+    return RateBudget(tuple(x for x in lines if x is not None), tuple(notes))
 
 
 __all__ += ["BudgetRanges", "budget_ranges", "gravity_at"]

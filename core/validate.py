@@ -205,16 +205,6 @@ def _parse_site(r: Reader, reference_c: float) -> Site:
     return site
 
 
-def blade_stiffness(blades: Blades, youngs_modulus_pa: float) -> float:
-    """Bending stiffness of the blades, N·m/rad: count · E · w t³ / (12 ℓ).
-
-    Each blade bent into an arc over its free length ℓ needs torque E I / ℓ per radian, with
-    I = w t³ / 12 (Euler–Bernoulli beam theory, pure bending); blades side by side add.
-    """
-    second_moment = blades.width_m * blades.thickness_m**3 / 12.0
-    return blades.count * youngs_modulus_pa * second_moment / blades.free_length_m
-
-
 def _parse_suspension(r: Reader | None, materials: dict[str, Material]) -> Suspension:
     if r is None:
         return Suspension()
@@ -235,7 +225,7 @@ def _parse_suspension(r: Reader | None, materials: dict[str, Material]) -> Suspe
         if r.has("stiffness_n_m_per_rad") and r.obj["stiffness_n_m_per_rad"] is not None:
             raise DesignError(r.at("stiffness_n_m_per_rad"), "give the stiffness or the "
                               "blades, not both (set the stiffness to null)")
-        k = blade_stiffness(blades, materials[blades.material].youngs_modulus_pa)
+        k = 0.0  # derived by the model under the pendulum's weight (core.blades)
     r.done()
     assert k is not None
     if kind == "knife_edge" and k != 0.0:

@@ -22,6 +22,7 @@ from PySide6.QtCore import QMimeData, QPointF, Qt, QUrl
 from PySide6.QtGui import QDropEvent
 from PySide6.QtWidgets import QMessageBox
 
+import core.atomic_write as atomic_write
 import core.fileformat as fileformat
 from app.cli import main
 from app.document.document import read_design_file
@@ -284,7 +285,7 @@ def _disk_full(monkeypatch: pytest.MonkeyPatch) -> None:
 
 
 SAVE_FAULTS: dict[str, tuple[Callable[[pytest.MonkeyPatch], None], int]] = {
-    "read-only folder": (lambda mp: mp.setattr(fileformat.tempfile, "mkstemp",
+    "read-only folder": (lambda mp: mp.setattr(atomic_write, "_open_temp",
                                                _raise(errno.EACCES)), errno.EACCES),
     "disk full": (_disk_full, errno.ENOSPC),
     "rename fails": (lambda mp: mp.setattr(fileformat.os, "replace", _raise(errno.EXDEV)),

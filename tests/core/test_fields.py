@@ -35,14 +35,14 @@ def sample_a() -> dict[str, Any]:
     return {
         "format": "penduline-design", "version": 2, "name": "Sample A", "purpose": "exhibit",
         "reference_temperature_c": 20.0,
-        "materials": {"zinc": {"name": "Zinc", "density_kg_m3": 7140.0,
-                               "expansion_per_k": 3.0e-5, "youngs_modulus_pa": 1.08e11,
-                               "source": "invented for a test"}},
+        "materials": {"own_zinc": {"name": "Zinc", "density_kg_m3": 7140.0,
+                                   "expansion_per_k": 3.0e-5, "youngs_modulus_pa": 1.08e11,
+                                   "source": "invented for a test"}},
         "site": {"latitude_deg": 52.0, "elevation_m": 40.0, "g_m_s2": 9.81,
                  "temperature_c": 20.0, "pressure_hpa": 1013.25},
         "suspension": {"kind": "spring", "stiffness_n_m_per_rad": 0.5},
         "parts": [
-            {"kind": "rod", "name": "rod", "material": "zinc", "top_m": 0.0, "length_m": 1.0,
+            {"kind": "rod", "name": "rod", "material": "own_zinc", "top_m": 0.0, "length_m": 1.0,
              "diameter_m": 0.008, "mass_kg": 0.4},
             {"kind": "sleeve", "name": "sleeve", "material": "steel", "on": "rod",
              "length_m": 0.05, "outer_diameter_m": 0.02, "inner_diameter_m": 0.009,

@@ -22,6 +22,7 @@ from typing import Any
 
 import pytest
 
+import core.atomic_write as atomic_write
 import core.fileformat as fileformat
 from app.cli import main
 from core import DesignError, load_design, loads_design, save_design, with_value
@@ -298,10 +299,10 @@ def _raise(code: int) -> Callable[..., Any]:
 
 SAVE_FAULTS: dict[str, tuple[Callable[[pytest.MonkeyPatch], None], str]] = {
     "read-only folder (no temporary file)": (
-        lambda mp: mp.setattr(fileformat.tempfile, "mkstemp", _raise(errno.EACCES)),
+        lambda mp: mp.setattr(atomic_write, "_open_temp", _raise(errno.EACCES)),
         os.strerror(errno.EACCES)),
     "read-only file system": (
-        lambda mp: mp.setattr(fileformat.tempfile, "mkstemp", _raise(errno.EROFS)),
+        lambda mp: mp.setattr(atomic_write, "_open_temp", _raise(errno.EROFS)),
         os.strerror(errno.EROFS)),
     "disk full while writing": (
         lambda mp: _fail_write_after(mp, errno.ENOSPC, 100), os.strerror(errno.ENOSPC)),

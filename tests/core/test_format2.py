@@ -22,8 +22,10 @@ from core import (
     loads_design,
     save_design,
 )
+from core.blades import blade_stiffness_n_m_per_rad
 from core.mass_properties import layout
 from core.materials import MATERIALS
+from core.model import pendulum_state
 
 from _core_builders import bob, clamp, design, on_sleeve, rod, sleeve
 from test_fields import sample_a, sample_b
@@ -107,25 +109,25 @@ ZINC = {"name": "Zinc", "density_kg_m3": 7140.0, "expansion_per_k": 3.0e-5,
 
 class TestUserMaterials:
     def test_a_part_of_a_user_material_uses_its_density(self) -> None:
-        d = v2([rod(material="zinc", length_m=1.0, diameter_m=0.01), bob(mass_kg=1.0)])
-        d["materials"] = {"zinc": ZINC}
+        d = v2([rod(material="own_zinc", length_m=1.0, diameter_m=0.01), bob(mass_kg=1.0)])
+        d["materials"] = {"own_zinc": ZINC}
         body = layout(design_from_dict(d))[0]
         # Plain geometry: a round rod's mass is ρ π d²/4 ℓ.
         assert body.mass_kg == pytest.approx(7140.0 * math.pi * 0.01**2 / 4 * 1.0, rel=1e-12)
         assert math.isfinite(analyse(d).period_s)
 
     def test_it_grows_with_its_own_expansion(self) -> None:
-        d = v2([rod(material="zinc", length_m=1.0), bob(mass_kg=1.0)], temperature_c=30.0)
-        d["materials"] = {"zinc": ZINC}
+        d = v2([rod(material="own_zinc", length_m=1.0), bob(mass_kg=1.0)], temperature_c=30.0)
+        d["materials"] = {"own_zinc": ZINC}
         body = layout(design_from_dict(d))[0]
         assert body.length_along_m == pytest.approx(1.0 * (1 + 3.0e-5 * 10.0), rel=1e-12)
 
     @pytest.mark.parametrize("key, entry, field", [
         ("steel", ZINC, "materials.steel"),
-        ("zinc", {**ZINC, "source": ""}, "materials.zinc.source"),
-        ("zinc", {k: v for k, v in ZINC.items() if k != "source"}, "materials.zinc.source"),
-        ("zinc", {**ZINC, "density_kg_m3": -1.0}, "materials.zinc.density_kg_m3"),
-        ("zinc", {**ZINC, "colour": "grey"}, "materials.zinc.colour"),
+        ("own_zinc", {**ZINC, "source": ""}, "materials.own_zinc.source"),
+        ("own_zinc", {k: v for k, v in ZINC.items() if k != "source"}, "materials.own_zinc.source"),
+        ("own_zinc", {**ZINC, "density_kg_m3": -1.0}, "materials.own_zinc.density_kg_m3"),
+        ("own_zinc", {**ZINC, "colour": "grey"}, "materials.own_zinc.colour"),
         ("Zinc metal", ZINC, "materials.Zinc metal"),
     ])
     def test_refusals(self, key: str, entry: Any, field: str) -> None:
@@ -134,8 +136,8 @@ class TestUserMaterials:
         assert refused(d).field == field
 
     def test_an_unknown_material_is_refused(self) -> None:
-        err = refused(v2([rod(material="zinc"), bob()]))
-        assert err.field == "parts[0].material" and "'zinc'" in err.reason
+        err = refused(v2([rod(material="own_zinc"), bob()]))
+        assert err.field == "parts[0].material" and "'own_zinc'" in err.reason
 
     def test_built_in_keys_remain(self) -> None:
         assert {"steel", "invar", "cast_iron"} <= set(MATERIALS)
@@ -214,11 +216,20 @@ class TestBlades:
         return d
 
     def test_stiffness_from_the_blades(self) -> None:
-        sus = design_from_dict(self.spring(BLADES)).suspension
-        # Euler–Bernoulli pure bending: k = n E w t³ / (12 ℓ) per blade, blades side by side.
-        expected = 2 * 200e9 * 0.006 * 1e-4**3 / 12 / 0.006
-        assert sus.stiffness_n_m_per_rad == pytest.approx(expected, rel=1e-12)
-        assert sus.blades is not None and sus.blades.count == 2
+        d = design_from_dict(self.spring(BLADES))
+        assert d.suspension.blades is not None and d.suspension.blades.count == 2
+        state = pendulum_state(d)
+        weight = state.mass.mass_kg * state.g_m_s2
+        # The model's stiffness is the blades' bending stiffness under the pendulum's weight
+        # (core.blades, itself checked against solve_bvp in test_blades.py) ...
+        assert state.stiffness_n_m_per_rad == pytest.approx(blade_stiffness_n_m_per_rad(
+            2, 200e9, 0.006, 1e-4, 0.006, weight), rel=1e-12)
+        # ... and with a short blade under a light pull it is close to pure bending,
+        # n E w t³ / (12 ℓ) (Euler–Bernoulli beam theory [pub, memory]): the tension's
+        # factor x / sinh x, x = ℓ / λ, λ² = E I / (T / n), stays near 1.
+        pure = 2 * 200e9 * 0.006 * 1e-4**3 / 12 / 0.006
+        x = 0.006 / math.sqrt(200e9 * 0.006 * 1e-4**3 / 12 / (weight / 2))
+        assert state.stiffness_n_m_per_rad == pytest.approx(pure * x / math.sinh(x), rel=1e-12)
         written = design_to_dict(design_from_dict(self.spring(BLADES)))["suspension"]
         assert written["stiffness_n_m_per_rad"] is None and written["blades"] == BLADES
 

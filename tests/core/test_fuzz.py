@@ -136,11 +136,11 @@ def format2(d: dict[str, Any], draw: st.DrawFn) -> None:
         d["exhibit"] = {"pivot_above_floor_m": draw(number(0.5, 30.0, (1e-9, 1000.0))),
                         "barrier_radius_m": draw(st.one_of(st.none(), number(0.1, 10.0)))}
     if draw(st.booleans()):
-        d["materials"] = {"zinc": {"name": "Zinc", "density_kg_m3": draw(number(10.0, 25000.0)),
+        d["materials"] = {"own_zinc": {"name": "Zinc", "density_kg_m3": draw(number(10.0, 25000.0)),
                                    "expansion_per_k": draw(number(-5e-5, 5e-4)),
                                    "youngs_modulus_pa": draw(number(1e6, 1.2e12)),
                                    "source": "invented"}}
-        d["parts"][0]["material"] = "zinc"
+        d["parts"][0]["material"] = "own_zinc"
     if d["suspension"]["kind"] == "spring" and draw(st.booleans()):
         d["suspension"] = {"kind": "spring", "stiffness_n_m_per_rad": None, "blades": {
             "count": draw(st.integers(1, 8)), "material": "steel",
@@ -219,6 +219,24 @@ def _finite(value: Any) -> bool:
         value)
 
 
+def _check_planning(r: Result, has_bob: bool) -> None:
+    """Exhibit-planning and pivot figures: finite, None only where documented."""
+    assert r.purpose in ("clock", "exhibit")
+    g, c, p = r.geometry, r.cable, r.pivot
+    assert g is not None and c is not None and p is not None
+    assert (g.bob_rise_m is None) == (not has_bob)
+    for value in (g.lowest_point_m, g.outer_reach_m, g.outer_sweep_m, c.stretch_m,
+                  c.stretch_rate_s_per_day, c.peak_stress_pa, p.radius_of_gyration_m,
+                  p.pivot_sensitivity_s_per_day_per_mm, *([] if not has_bob else
+                                                           [g.bob_rise_m])):
+        assert _finite(value), value
+    # None only for a body lighter than the air it displaces (no shortest-period pivot)
+    buoyant = sum(b.mass_kg - r.air_density_kg_m3 * b.volume_m3 for b in r.bodies) <= 0
+    for value in (p.shortest_period_pivot_m, p.shortest_period_small_s):
+        assert (value is None) == buoyant and (value is None or _finite(value))
+    assert p.conjugate_pivot_m is None or _finite(p.conjugate_pivot_m)
+
+
 def check_result(r: Result) -> None:
     """Every figure finite; None exactly where documented."""
     d = r.design
@@ -227,7 +245,8 @@ def check_result(r: Result) -> None:
     for f in fields(r):
         value = getattr(r, f.name)
         if f.name in ("design", "warnings", "cautions", "sensitivities", "budget", "exhibit",
-                      "bodies", "motion", "phase", "period_curve"):
+                      "bodies", "motion", "phase", "period_curve", "purpose", "geometry",
+                      "cable", "pivot"):
             continue
         if value is None:
             assert f.name in ALLOWED_NONE, f.name
@@ -238,6 +257,7 @@ def check_result(r: Result) -> None:
             continue
         assert _finite(value), (f.name, value)
     assert (r.rate_s_per_day is None) == (not has_target)
+    _check_planning(r, has_bob)
     assert (r.peak_speed_m_s is None) == (not has_bob)
     s = r.sensitivities
     for f in fields(s):

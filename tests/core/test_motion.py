@@ -14,9 +14,10 @@ from __future__ import annotations
 import mpmath
 import numpy as np
 import pytest
+from scipy.integrate import solve_ivp
 from scipy.special import ellipj, ellipk
 
-from core.motion import integrated_motion, jacobi_motion, motion
+from core.motion import integrated_motion, integrated_motion_steps, jacobi_motion, motion
 from core.period import period_exact, period_small
 
 from _mp_reference import mp_jacobi_angle, mp_jacobi_velocity, mp_period
@@ -165,23 +166,75 @@ class TestMotion:
         np.testing.assert_allclose(m.angle_rad, straight, rtol=0, atol=3e-9)
         assert m.angle_rad[-1] == pytest.approx(th0, abs=1e-9)
 
-    def test_damped_linear_curve_decays(self) -> None:
-        # With Q the linear curve is θ₀ cos(2πt/T₀) exp(−ω₀t/2Q), ω₀ = √((A+k)/I) (French ch. 3
-        # [pub, memory]), and the exact curve's turning points follow the same envelope at
-        # small arcs.
-        inertia, torque, q, deg = 1.0, 4.0, 20.0, 0.05
+    def test_damped_linear_curve_starts_from_rest(self) -> None:
+        # With Q the linear curve is the linear damped oscillator released from rest. Reference:
+        # scipy.integrate.solve_ivp (DOP853, rtol 1e-12) of θ̈ + (ω₀/Q)θ̇ + ω₀²θ = 0,
+        # θ(0) = θ₀, θ̇(0) = 0 — the linear equation integrated, not the closed form again.
+        inertia, torque, q, deg = 1.0, 4.0, 3.0, 0.05
         th0 = np.radians(deg)
         t0 = period_small(inertia, torque)
         t_exact = float(period_exact(inertia, torque, 0.0, [th0])[0])
         m = motion(inertia, torque, 0.0, th0, t_exact, t0, q, periods=3, points_per_period=400)
         assert m.method == "lsoda"
         w0 = 2.0
-        np.testing.assert_allclose(
-            m.linear_angle_rad, th0 * np.cos(w0 * m.time_s) * np.exp(-w0 * m.time_s / (2 * q)),
-            rtol=0, atol=1e-15)
-        # The turning point near t = 3T lies at 3T_d, T_d = 2π/(ω₀√(1 − 1/4Q²)), where the
-        # linear solution is exactly θ₀ exp(−ω₀·3T_d/2Q). The samples (T/400 apart) miss it by
-        # at most half a step: cos error ≤ 3e-5; the tolerance is 5e-5.
-        t_d = 2 * np.pi / (w0 * np.sqrt(1 - 1 / (4 * q * q)))
-        peak = np.max(m.angle_rad[-40:])
-        assert peak == pytest.approx(th0 * np.exp(-w0 * 3 * t_d / (2 * q)), rel=5e-5)
+        ref = solve_ivp(lambda _t, y: [y[1], -w0 / q * y[1] - w0**2 * y[0]],
+                        (0.0, float(m.time_s[-1])), [th0, 0.0], method="DOP853",
+                        t_eval=m.time_s, rtol=1e-12, atol=1e-16 * th0)
+        np.testing.assert_allclose(m.linear_angle_rad, ref.y[0], rtol=0, atol=1e-12 * th0)
+        # The old curve θ₀ cos(ω₀t)e^(−γt) leaves rest with θ̇(0) = −γθ₀ and is off by up to
+        # ~γ/ω_d·θ₀ — far outside the tolerance above, so this test tells them apart.
+        old = th0 * np.cos(w0 * m.time_s) * np.exp(-w0 * m.time_s / (2 * q))
+        assert np.max(np.abs(old - ref.y[0])) > 0.05 * th0
+        # and the pendulum itself, at 0.05°, follows the linear curve to O(θ₀³) (≈ 1e-8 θ₀ here;
+        # tolerance 1e-6 θ₀):
+        np.testing.assert_allclose(m.angle_rad, ref.y[0], rtol=0, atol=1e-6 * th0)
+
+    def test_undamped_linear_curve_is_cosine(self) -> None:
+        # Without Q: θ₀ cos(2πt/T₀) (linear oscillator, French ch. 3 [pub, memory]).
+        m = motion(1.0, 1.0, 0.5, 0.1, 5.2, period_small(1.0, 1.0, 0.5), None, periods=1,
+                   points_per_period=50)
+        np.testing.assert_allclose(m.linear_angle_rad,
+                                   0.1 * np.cos(np.sqrt(1.5) * m.time_s), rtol=0, atol=1e-15)
+
+
+class TestStiffSpring:
+    """A spring far stiffer than gravity: the motion is the linear spring oscillator
+    θ ≈ θ₀ cos(√(k/I) t) (Hooke's law with I θ̈ = −kθ; any mechanics text). The gravity term
+    shifts the frequency by A/(2k) relatively and adds A θ₀³/6 of nonlinearity."""
+
+    @pytest.mark.parametrize("inertia, torque, k, deg", [
+        (1e-10, 1e-10, 1e-3, 1.0),    # 1 mg bob on 1 cm: spring 1e7 × the gravity torque
+        (4.4e-8, 3.1e-9, 1e-3, 5.0),  # spring 3e5 × gravity
+        (1e-12, 1e-12, 1e4, 0.01),    # spring 1e16 × gravity, ω = 1e8 rad/s
+    ])
+    def test_matches_linear_spring_solution(self, inertia: float, torque: float, k: float,
+                                            deg: float) -> None:
+        th0 = np.radians(deg)
+        w = np.sqrt(k / inertia)
+        t = np.linspace(0.0, 3 * 2 * np.pi / w, 601)
+        for q in (None, 1e9):
+            damping = 0.0 if q is None else np.sqrt((torque + k) / inertia) / q
+            theta, velocity, steps = integrated_motion_steps(inertia, torque, k, th0, damping, t)
+            # Over 3 periods the phase drifts by ≤ 2π·3·A/(2k) and the cube term is A/k·θ₀²;
+            # with A/k ≤ 1e-5 and rounding that is ≤ 1e-4 θ₀ (tolerance); the velocity
+            # scales by ω.
+            np.testing.assert_allclose(theta, th0 * np.cos(w * t), rtol=0, atol=1e-4 * th0)
+            np.testing.assert_allclose(velocity, -th0 * w * np.sin(w * t), rtol=0,
+                                       atol=1e-4 * th0 * w)
+            # The scaled equation keeps the work per period bounded whatever the stiffness:
+            # a few hundred LSODA steps per period, never a collapse of the step size.
+            assert 0 < steps < 3000
+
+    def test_stiff_design_through_motion(self) -> None:
+        # The design that once collapsed the step: I = 4.408e-5 kg·m², A = 7.84e5 N·m,
+        # k = 2.19e-3 N·m/rad at 0.0735°, undamped — the spring-pendulum period from the
+        # 40-digit quadrature; after one and three periods the motion is back at θ₀, at rest.
+        inertia, torque, k, deg = 4.4080627073315255e-05, 784002.1324071555, 0.002191561, 0.0735
+        th0 = np.radians(deg)
+        period = float(mp_period(inertia, torque, k, mpmath.radians(deg)))
+        m = motion(inertia, torque, k, th0, period, period_small(inertia, torque, k), None)
+        assert m.angle_rad[400] == pytest.approx(th0, rel=1e-9)
+        assert m.angle_rad[-1] == pytest.approx(th0, rel=1e-9)
+        assert m.angle_rad[200] == pytest.approx(-th0, rel=1e-9)
+        omega = np.sqrt((torque + k) / inertia)
+        assert abs(m.angular_velocity_rad_s[400]) < 1e-8 * th0 * omega
