@@ -358,6 +358,12 @@ class SwingPreview(ResultView, SwingAnimation):
                 label.item.setTextWidth(width)
                 label.updateMin()
 
+    def close(self) -> bool:  # pyqtgraph's close clears the scene: no frame after it
+        """Stop the animation, then close (the drawing's items go with the scene)."""
+        self._timer.stop()
+        self._playing = False
+        return bool(super().close())
+
     def hideEvent(self, event: QtGui.QHideEvent) -> None:  # Qt override
         """Stop the timer while hidden (the swing time holds); it resumes when shown if still
         playing."""
