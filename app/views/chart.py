@@ -3,8 +3,9 @@ styled axes, a legend below them, plain curves and a second y axis, fewer ticks 
 pane.
 
 Curves are plain ``PlotCurveItem`` objects made once and updated with ``setData``; only the
-few thick main curves are antialiased (their stair steps show; the thin ones' do not, and
-antialiasing every curve would cost the live drag its speed).
+few thick main curves are antialiased (their stair steps show; the thin ones' do not), and
+those only at rest: while results stream in (a live drag) they are drawn plain, and smoothed
+again once the stream stops, so the drag keeps its speed (``benchmarks/gui_bench.py``).
 
 The legend names only what is on view: a view calls :meth:`ChartView._name_in_legend` with
 the entries it shows after framing (a curve hidden under another, or out of the range, is
@@ -49,6 +50,7 @@ class ChartView(ResultView):
         item.layout.addItem(self.legend, 4, 1)
         item.layout.setRowSpacing(3, 2)
         self._legend_key: tuple[tuple[int, str], ...] = ()
+        self._smooth: list[pg.PlotCurveItem] = []
 
     def resizeEvent(self, event: Any) -> None:  # Qt override
         """Fit the legend's columns and the tick density to the size."""
@@ -88,6 +90,8 @@ class ChartView(ResultView):
         """A plain curve added once; later updated with ``setData``. ``smooth``: antialiased
         (for the few thick main curves)."""
         curve = pg.PlotCurveItem(pen=pen(color, width), antialias=smooth)
+        if smooth:
+            self._smooth.append(curve)
         curve.setZValue(z)
         if view is None:
             self.getPlotItem().addItem(curve)
@@ -97,6 +101,29 @@ class ChartView(ResultView):
             self.legend.addItem(curve, name)
             self._legend_key += ((id(curve), name),)
         return curve
+
+    def _result_arrived(self, result: Any, baseline: Any) -> None:
+        """As the base; in a stream, the smooth curves are drawn plain until it stops."""
+        super()._result_arrived(result, baseline)
+        if self._streaming:
+            self._set_smooth(False)
+
+    def _stream_ended(self) -> None:
+        self._set_smooth(True)
+        super()._stream_ended()
+
+    def _set_smooth(self, on: bool) -> None:
+        if not self._alive():
+            return
+        for curve in self._smooth:
+            if curve.opts["antialias"] != on:
+                curve.opts["antialias"] = on
+                curve.update()
+
+    @property
+    def smooth(self) -> bool:
+        """True while the main curves are antialiased (at rest; not during a live drag)."""
+        return all(curve.opts["antialias"] for curve in self._smooth)
 
     def _name_in_legend(self, entries: list[tuple[pg.PlotCurveItem, str]]) -> None:
         """Make the legend list exactly ``entries`` (curve, name), in order, then the

@@ -48,7 +48,8 @@ LINE_COLOUR = theme.MARKER
 WARNING_COLOUR = theme.PROBLEM
 CENTRE_PATH_COLOUR = theme.EXACT
 LOWEST_PATH_COLOUR = theme.LINEAR
-NARROW_CONTROLS_PX = 520  # narrower than this, the control bar uses its short words
+NARROW_CONTROLS_PX = 520
+SMOOTH_DRAWING = True  # antialiased drawing (benchmarks/gui_bench.py measures its cost)  # narrower than this, the control bar uses its short words
 
 
 class SwingPreview(ResultView, SwingAnimation):
@@ -82,6 +83,7 @@ class SwingPreview(ResultView, SwingAnimation):
         self._legend_names: tuple[str, ...] = ()
         self._shown_range: tuple[float, float, float, float] | None = None
         self._setup_animation(clock)
+        self.setAntialiasing(SMOOTH_DRAWING)  # a rotated rod is stair-stepped without it
         self._setup_axes()
         self._envelope = Envelope(self.getPlotItem().getViewBox())
         self._setup_overlay()

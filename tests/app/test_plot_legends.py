@@ -94,3 +94,12 @@ def test_rate_without_a_target_is_explained_in_the_plot(qtbot, atrium):  # type:
     assert not plot.marker.isVisible()
     plot.set_quantity("period")
     assert plot.note_text() == "" and plot.marker.isVisible()
+
+
+def test_main_curves_are_smooth_at_rest_and_plain_during_a_drag(qtbot, regulator):  # type: ignore[no-untyped-def]
+    plot = _shown(PhasePlot(), qtbot, regulator)
+    assert plot.smooth and plot.current.opts["antialias"]
+    wider = analyse(with_value(regulator.design, "swing.amplitude_deg", 1.7))
+    plot.show_result(wider)  # within the settling time of the last: a live drag
+    assert not plot.smooth
+    qtbot.waitUntil(lambda: plot.smooth, timeout=3000)  # smoothed once the stream stops
