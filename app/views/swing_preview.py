@@ -308,10 +308,14 @@ class SwingPreview(ResultView, SwingAnimation):
             self._info.setText(html)
 
     def _set_caution(self, r: Result) -> None:
-        cautions = [LOAD_CAUTION] + [c for c in r.cautions if c == SPRING_CAUTION]
-        text = "<b>Caution.</b> " + "<br>".join(escape(c, quote=False) for c in cautions)
+        """The core's load and spring cautions where they apply to this design (none for a
+        light clock pendulum on a knife edge)."""
+        cautions = [c for c in r.cautions if c in (LOAD_CAUTION, SPRING_CAUTION)]
+        text = ("<b>Caution.</b> " + "<br>".join(escape(c, quote=False) for c in cautions)
+                if cautions else "")
         if text != self._caution.text:
             self._caution.setText(text)
+            self._caution.setVisible(bool(text))
 
     def _reframe(self) -> None:
         if self._drawing is not None:

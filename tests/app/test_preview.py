@@ -496,3 +496,14 @@ def test_window_preview_has_play_and_speed_controls(window, qtbot) -> None:  # t
     assert preview.is_playing()
     controls.play_button.setChecked(False)
     assert not preview.is_playing()
+
+
+def test_the_load_caution_only_where_the_core_gives_it(qtbot, regulator):  # type: ignore[no-untyped-def]
+    from core.analysis import LOAD_CAUTION_MASS_KG
+
+    view = SwingPreview()
+    qtbot.addWidget(view)
+    # the regulator, 9.1 kg and 1.1 m long, is below the core's threshold for the caution
+    assert regulator.mass_kg < LOAD_CAUTION_MASS_KG
+    view.show_result(regulator)
+    assert LOAD_CAUTION not in regulator.cautions and view.caution_text() == ""
