@@ -48,8 +48,8 @@ LINE_COLOUR = theme.MARKER
 WARNING_COLOUR = theme.PROBLEM
 CENTRE_PATH_COLOUR = theme.EXACT
 LOWEST_PATH_COLOUR = theme.LINEAR
-NARROW_CONTROLS_PX = 520
-SMOOTH_DRAWING = True  # antialiased drawing (benchmarks/gui_bench.py measures its cost)  # narrower than this, the control bar uses its short words
+NARROW_CONTROLS_PX = 520  # narrower than this, the control bar uses its short words
+SMOOTH_DRAWING = True  # antialiased drawing (benchmarks/gui_bench.py measures its cost)
 
 
 class SwingPreview(ResultView, SwingAnimation):
