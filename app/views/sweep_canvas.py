@@ -41,7 +41,7 @@ class SweepCanvas(ResultView):
         item = self.getPlotItem()
         for name in ("left", "bottom"):
             style_axis(item.getAxis(name))
-        self.curve = pg.PlotCurveItem(pen=pg.mkPen(theme.EXACT, width=2.0), antialias=False)
+        self.curve = pg.PlotCurveItem(pen=pg.mkPen(theme.EXACT, width=2.0), antialias=True)
         item.addItem(self.curve)
         self.marker = pg.InfiniteLine(angle=90, movable=False,
                                       pen=pg.mkPen(theme.MARKER, width=1.0,

@@ -25,7 +25,7 @@ from app import theme
 from core.mass_properties import Body
 
 __all__ = ["Outline", "outlines_from_bodies", "deepest_point_m", "Drawing", "Envelope",
-           "pivot_item", "pivot_path", "cosmetic_pen"]
+           "pivot_item", "pivot_path", "cosmetic_pen", "THIN_PX"]
 
 # Colours: the workbench theme's paper, ink, ghost and marker; the parts' own colours here.
 INK = theme.INK
@@ -44,6 +44,7 @@ CENTRE_PATH_COLOUR = theme.EXACT
 LOWEST_PATH_COLOUR = theme.LINEAR
 
 _ROUND_SHAPES = ("sphere", "disc", "lens")
+THIN_PX = 2.0  # rods and sleeves drawn narrower than this are outlined, not filled
 
 
 @dataclass(frozen=True)
@@ -184,6 +185,28 @@ class Drawing:
             if inner is not None:
                 inner.setRect(_inner_rect(o))  # type: ignore[attr-defined]
         return True
+
+    def fill_thin_parts(self, pixel_m: float) -> None:
+        """Fill a rod or sleeve only when it is drawn wider than ``THIN_PX`` pixels
+        (``pixel_m``: metres per pixel); a thinner one is its outline alone. Filling a
+        rectangle narrower than a pixel, rotated, leaves a faint vertical streak beside it
+        (the rasteriser's), the "second line along the cable" at some zoom levels."""
+        if self.ghost:
+            return
+        for name, o in self.outlines.items():
+            if o.kind not in ("rod", "sleeve"):
+                continue
+            item = self.items[name]
+            thin = o.width_m < THIN_PX * pixel_m
+            brush = (QtGui.QBrush(QtCore.Qt.BrushStyle.NoBrush) if thin
+                     else pg.mkBrush(ROD_COLOUR if o.kind == "rod" else SLEEVE_COLOUR))
+            if item.brush().style() != brush.style():  # type: ignore[attr-defined]
+                item.setBrush(brush)  # type: ignore[attr-defined]
+
+    def is_filled(self, name: str) -> bool:
+        """Whether part ``name`` is drawn filled."""
+        brush = self.items[name].brush()  # type: ignore[attr-defined]
+        return bool(brush.style() != QtCore.Qt.BrushStyle.NoBrush)
 
     def set_angle(self, angle_rad: float) -> None:
         """Rotate the drawing about the pivot; positive angles move the bob to the right."""

@@ -268,6 +268,16 @@ class SwingPreview(ResultView, SwingAnimation):
         self._shown_range = shown
         self.getPlotItem().getViewBox().setRange(xRange=shown[:2], yRange=shown[2:],
                                                  padding=0.0)
+        self._fill_thin_parts()
+
+    def _fill_thin_parts(self) -> None:
+        """Outline, not fill, the rods thinner than a couple of pixels at this zoom."""
+        vb = self.getPlotItem().getViewBox()
+        (x0, x1), _ = vb.viewRange()
+        width_px = max(float(vb.width()), 1.0)
+        for drawing in (self._drawing, self._ghost):
+            if drawing is not None:
+                drawing.fill_thin_parts((x1 - x0) / width_px)
 
     @property
     def compact(self) -> bool:
@@ -349,6 +359,8 @@ class SwingPreview(ResultView, SwingAnimation):
             compact = self.compact
             self._wrap_caution()
             super().resizeEvent(event)
+            if self._drawing is not None:
+                self._fill_thin_parts()
             if compact != self._compact_shown:
                 self._compact_shown = compact
                 self._update_info()

@@ -507,3 +507,14 @@ def test_the_load_caution_only_where_the_core_gives_it(qtbot, regulator):  # typ
     assert regulator.mass_kg < LOAD_CAUTION_MASS_KG
     view.show_result(regulator)
     assert LOAD_CAUTION not in regulator.cautions and view.caution_text() == ""
+
+
+def test_a_rod_thinner_than_two_pixels_is_outlined_not_filled(qtbot, atrium, regulator):  # type: ignore[no-untyped-def]
+    # a filled rectangle under a pixel wide, rotated, leaves a faint streak beside it
+    view = SwingPreview()
+    qtbot.addWidget(view)
+    view.resize(700, 760)
+    view.show_result(atrium)  # a 2.5 mm wire in a view some 20 m across: far under a pixel
+    assert not view._drawing.is_filled("wire")
+    view.show_result(regulator)  # an 8 mm rod in a view about 1.3 m across: several pixels
+    assert view._drawing.is_filled("rod")
