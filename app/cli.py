@@ -1,4 +1,5 @@
-"""The ``penduline`` command: the window, and ``report``, ``solve``, ``sweep``, ``export``.
+"""The ``penduline`` command: the window, and ``report``, ``solve``, ``sweep``, ``export``,
+``rating``, ``beats``.
 
 Exit codes: 0 success, 2 bad input (one line on stderr naming the field), 1 a program failure
 (one line asking for a report; ``--debug`` anywhere on the line adds the traceback).
@@ -17,7 +18,7 @@ from typing import Any
 
 __all__ = ["main"]
 
-COMMANDS = ("report", "solve", "sweep", "export")
+COMMANDS = ("report", "solve", "sweep", "export", "rating", "beats")
 
 
 class _UsageError(Exception):
@@ -31,7 +32,6 @@ class _Parser(argparse.ArgumentParser):
 
 COMMAND_HELP = {
     "report": "print the readout of a design (or --json)",
-    "solve": "find the value of one or two fields that meets the targets",
     "sweep": "period and rate against one field, as CSV",
     "export": "write plots, data and a PDF report, no display needed",
 }
@@ -41,7 +41,10 @@ def _window_parser() -> _Parser:
     """The window's words (``penduline [FILE] ...``); builds the view list, so imports Qt."""
     from app.launch import view_names
 
-    commands = "\n".join(f"  penduline {name:<8} {text}" for name, text in COMMAND_HELP.items())
+    sub = next(a for a in _tools_parser()._actions
+               if isinstance(a, argparse._SubParsersAction))
+    commands = "\n".join(f"  penduline {action.dest:<8} {action.help}"
+                         for action in sub._choices_actions)
     window = _Parser(prog="penduline", formatter_class=argparse.RawDescriptionHelpFormatter,
                      description="Open the Penduline workbench on a design file.",
                      epilog=f"commands (penduline COMMAND --help for their options):\n"
@@ -115,7 +118,27 @@ def _tools_parser() -> _Parser:
     exp.add_argument("file", help="design file (*.pendulum.json)")
     exp.add_argument("--out", required=True, metavar="DIR",
                      help="folder to write into (made if missing; files in it are replaced)")
-    for p in (rep, sol, swp, exp):
+    rat = sub.add_parser("rating", help="fit the rating log: measured rate, coefficients, "
+                         "correction")
+    rat.add_argument("file", help="design file (its rating log, unless --log is given)")
+    rat.add_argument("--json", action="store_true", help="one JSON object, SI units")
+    rat.add_argument("--log", metavar="CSV",
+                     help="fit this CSV log instead of the design's (bad rows become warnings)")
+    bts = sub.add_parser("beats", help="rate a clock from a sound recording of its ticking",
+                         description="Find the ticks in a WAV recording, fit the beat and the "
+                                     "beat asymmetry (out of beat), and rate the clock against "
+                                     "a target period.")
+    bts.add_argument("recording", help="WAV file: mono or stereo, 8-96 kHz, 16/24/32-bit "
+                                       "integer or float")
+    target = bts.add_mutually_exclusive_group()
+    target.add_argument("--design", metavar="FILE",
+                        help="rate against this design's target period (none: no rate)")
+    target.add_argument("--target-period", type=float, metavar="S",
+                        help="rate against this full period, s (two beats)")
+    bts.add_argument("--channel", type=int, metavar="N",
+                     help="use channel N of a stereo file (0 or 1; default: the channels mixed)")
+    bts.add_argument("--json", action="store_true", help="one JSON object, SI units")
+    for p in (rep, sol, swp, exp, rat, bts):
         p.__class__ = _Parser
     return tools
 
@@ -240,4 +263,44 @@ def _export(args: argparse.Namespace) -> int:
     return 0
 
 
-_COMMAND_RUNNERS = {"report": _report, "solve": _solve, "sweep": _sweep, "export": _export}
+def _rating(args: argparse.Namespace) -> int:
+    from core import DesignError, load_design, rating_log_from_csv, rating_report, rating_text
+
+    design = load_design(args.file)
+    messages: list[str] = []
+    if args.log:
+        try:
+            text = Path(args.log).read_text(encoding="utf-8")
+        except (OSError, UnicodeDecodeError) as exc:
+            raise DesignError("log", f"cannot read {args.log}: "
+                                     f"{getattr(exc, 'strerror', None) or exc}") from None
+        log, messages = rating_log_from_csv(text)
+    elif design.rating_log is None:
+        raise DesignError("rating_log", "the design has no rating log; give one with --log CSV")
+    else:
+        log = design.rating_log
+    report = rating_report(design, log, extra_warnings=messages)
+    if args.json:
+        print(json.dumps(report, allow_nan=False, ensure_ascii=False))
+    else:
+        print(rating_text(report), end="")
+    return 0
+
+
+def _beats(args: argparse.Namespace) -> int:
+    from core import analyse_recording, beats_text, load_design
+    from core.analysis import finite_or_none
+
+    target = args.target_period
+    if args.design:
+        target = load_design(args.design).target.target_period_s
+    analysis = analyse_recording(args.recording, target, args.channel)
+    if args.json:
+        print(json.dumps(finite_or_none(analysis.report_dict()), allow_nan=False))
+    else:
+        print(beats_text(analysis).rstrip("\n"))
+    return 0
+
+
+_COMMAND_RUNNERS = {"report": _report, "solve": _solve, "sweep": _sweep, "export": _export,
+                    "rating": _rating, "beats": _beats}

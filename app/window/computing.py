@@ -153,6 +153,9 @@ class WindowComputing(WindowParts):
         self.unit_actions[system].setChecked(True)
         self.design_panel.set_unit_system(system)
         self.readout.set_unit_system(system)
+        for view in self.plots:
+            if hasattr(view, "set_unit_system"):  # the rating view's temperatures, pressures
+                view.set_unit_system(system)
         self._reshow_problem()
         if self._remember:
             app_settings().setValue("view/units", system.value)

@@ -104,6 +104,12 @@ class MainWindow(WindowMenus, WindowComputing, WindowFiles, WindowLayout, QMainW
         self.plots = make_views()
         for view in self.plots:
             view.attach_controls()  # on-screen controls (the swing preview's play, speed, line)
+            bind, set_units = (getattr(view, name, None)
+                               for name in ("bind_document", "set_unit_system"))
+            if bind is not None:  # a view that edits the design (the rating log)
+                bind(self.document)
+            if set_units is not None:
+                set_units(self._system)
         self._stale_plots: set[int] = set()
         self.plot_area = PlotArea(cast(list[QWidget], self.plots), DEFAULT_ARRANGEMENT)
         self.plot_area.tabs.currentChanged.connect(lambda _index: self._refresh_plots())

@@ -12,6 +12,7 @@ from PySide6.QtWidgets import QMenu
 from app.document.settings import recent_files
 from app.form.units import UnitSystem
 from app.views.motion import MotionPlot
+from app.views.rating_view import RatingView
 from app.window.files import example_files, example_title
 from app.window.parts import WindowParts
 
@@ -73,6 +74,8 @@ class WindowMenus(WindowParts):
         self._action(menu, "&Duplicate part", self.design_panel.duplicate_selected_part,
                      "Ctrl+D")
         self._action(menu, "&Remove part", self.design_panel.remove_selected_part)
+        menu.addSeparator()
+        self._action(menu, "Add a rating &reading now", self._add_rating_reading, "Ctrl+R")
 
     def _build_view_menu(self) -> None:
         menu = self.menuBar().addMenu("&View")
@@ -99,9 +102,22 @@ class WindowMenus(WindowParts):
         self.difference_action.toggled.connect(motion.set_show_difference)
         motion.difference_action.toggled.connect(self.difference_action.setChecked)
         menu.addAction(self.difference_action)
+        self._action(menu, "&Rating log", self._show_rating_view, "Ctrl+Shift+R")
         menu.addSeparator()
         self._action(menu, "&Pin current design as baseline", self.pin_baseline, "Ctrl+B")
         self._action(menu, "&Clear baseline", self.clear_baseline)
+
+    def _rating_view(self) -> RatingView:
+        return next(p for p in self.plots if isinstance(p, RatingView))
+
+    def _show_rating_view(self) -> None:
+        self.plot_area.show_plot(self.plots.index(self._rating_view()))
+
+    def _add_rating_reading(self) -> None:
+        """Bring the rating view on view and add a reading at the present time."""
+        self._show_rating_view()
+        view = self._rating_view()
+        view.add_reading_now()
 
     def _set_grid(self, on: bool) -> None:
         self.plot_area.set_arrangement("grid" if on else "tabs")

@@ -13,7 +13,7 @@ import pytest
 from PySide6.QtGui import QImage
 
 import app.launch as launch
-from app.cli import _tools_parser, _window_parser, main
+from app.cli import COMMANDS, _tools_parser, _window_parser, main
 from app.views.catalogue import VIEWS
 from app.window.main_window import about_text
 
@@ -48,7 +48,7 @@ def test_top_level_help_lists_the_commands_and_views(capsys) -> None:  # type: i
         main(["--help"])
     assert done.value.code == 0
     out = capsys.readouterr().out
-    for command in OWN_COMMANDS:
+    for command in COMMANDS:
         assert f"penduline {command}" in out
     for cls in VIEWS:
         assert cls.slug in out

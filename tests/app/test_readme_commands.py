@@ -14,7 +14,7 @@ from pathlib import Path
 
 import pytest
 
-from app.cli import main
+from app.cli import COMMANDS, main
 from app.launch import view_names
 from core.fileformat import get_value, read_design_dict
 
@@ -22,7 +22,6 @@ ROOT = Path(__file__).resolve().parents[2]
 README = ROOT / "README.md"
 EXAMPLES = [ROOT / "resources" / "examples" / f"{name}.pendulum.json" for name in (
     "workshop_regulator", "hall_clock", "mantel_clock", "atrium_pendulum")]  # README's order
-SUBCOMMANDS = ("report", "solve", "sweep", "export", "rating")
 
 
 def readme_commands() -> list[str]:
@@ -71,7 +70,7 @@ def _argv(line: str, tmp: Path) -> list[str]:
         elif word.endswith(".png"):
             word = str(tmp / word)
         out.append(word)
-    window = not out or out[0] not in SUBCOMMANDS
+    window = not out or out[0] not in COMMANDS
     if window and "--help" not in out and "--screenshot" not in out:
         out += ["--screenshot", str(tmp / "window.png")]  # the window, drawn offscreen
     return out

@@ -143,7 +143,7 @@ class TestWhenSwept:
         assert len(calls) == 1 and sweep.sweep_count == 1
 
     def test_the_window_sweeps_only_while_the_tab_is_on_view(self, window):  # type: ignore[no-untyped-def]
-        sweep = window.plots[-1]
+        sweep = next(p for p in window.plots if isinstance(p, SweepPlot))
         assert isinstance(sweep, SweepPlot)
         assert sweep.sweep_count == 0  # computed designs, sweep never on view
         window.grid_action.setChecked(True)  # all plots together: the sweep keeps its tab
