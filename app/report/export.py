@@ -36,11 +36,15 @@ _app_ref: Any = None  # keeps the application alive while exporting
 
 
 def _choose_platform() -> None:
-    """Use the offscreen platform when there is no display to draw on (Linux)."""
+    """Use the offscreen platform when there is no display to draw on (Linux), or when the
+    X11 platform's system libraries are missing (an export needs no display)."""
+    from app.launch import missing_xcb_libraries
+
     if os.environ.get("QT_QPA_PLATFORM"):
         return
-    if sys.platform.startswith("linux") and not (os.environ.get("DISPLAY")
-                                                 or os.environ.get("WAYLAND_DISPLAY")):
+    if sys.platform.startswith("linux") and (
+            not (os.environ.get("DISPLAY") or os.environ.get("WAYLAND_DISPLAY"))
+            or missing_xcb_libraries()):
         os.environ["QT_QPA_PLATFORM"] = "offscreen"
 
 
