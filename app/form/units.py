@@ -214,6 +214,7 @@ _INCH_POUND_READOUT = {
     "N": ReadoutUnit("lbf", 1.0 / NEWTONS_PER_LBF),
     "N·m/rad": ReadoutUnit("lbf·in/rad", 1.0 / NM_PER_LBF_IN),
     "MPa": ReadoutUnit("ksi", 1e6 / (1000.0 * PA_PER_PSI)),
+    "Pa": ReadoutUnit("ksi", 1.0 / (1000.0 * PA_PER_PSI)),
     "J": ReadoutUnit("ft·lbf", 1.0 / (NEWTONS_PER_LBF * METRES_PER_FOOT)),
     "s/day/K": ReadoutUnit("s/day/°F", 1.0 / 1.8),
     "s/day/hPa": ReadoutUnit("s/day/inHg", HPA_PER_INHG),
@@ -237,4 +238,6 @@ def readout_unit(unit: str, system: UnitSystem) -> ReadoutUnit:
     """How a readout figure given in SI ``unit`` is shown in ``system``."""
     if system is UnitSystem.INCH_POUND and unit in _INCH_POUND_READOUT:
         return _INCH_POUND_READOUT[unit]
+    if unit == "Pa":  # stresses read in MPa
+        return ReadoutUnit("MPa", 1e-6)
     return ReadoutUnit(unit)

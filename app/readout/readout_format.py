@@ -58,6 +58,18 @@ SECTIONS: tuple[tuple[str, tuple[Row, ...]], ...] = (
         ("time_to_half_amplitude_s", "Time to half arc", "s", "{:.1f}"),
         ("foucault_turn_h", "Foucault full turn", "h", "{:.3f}"),
     )),
+    ("Exhibit planning", (
+        ("foucault_deg_per_hour", "Plane turns (+ clockwise)", "°/h", "{:+.3f}"),
+        ("bob_rise_m", "Bob rise at the ends", "m", "sig4"),
+        ("lowest_point_m", "Deepest point in swing", "m", "{:.4f}"),
+        ("outer_sweep_m", "Outer sweep of body", "m", "{:.4f}"),
+        ("floor_clearance_m", "Floor clearance", "m", "{:.4f}"),
+        ("barrier_margin_m", "Barrier margin", "m", "{:.4f}"),
+        ("stretch_m", "Static stretch", "m", "sig4"),
+        ("stretch_rate_s_per_day", "Rate lost to stretch", "s/day", "{:+.3f}"),
+        ("peak_stress_pa", "Peak stress (ideal)", "Pa", "sig4"),
+        ("peak_stress_ratio", "Stress / strength", "", "{:.3f}"),
+    )),
 )
 
 
@@ -105,6 +117,25 @@ DESCRIPTIONS: dict[str, str] = {
     "time_to_half_amplitude_s": "Time for the arc to fall to half, with no drive",
     "foucault_turn_h": "Hours for the plane of swing to turn a full circle at the site's "
                        "latitude",
+    "foucault_deg_per_hour": "How fast the plane of swing turns, degrees an hour: positive "
+                             "clockwise seen from above (northern hemisphere), negative "
+                             "counter-clockwise (southern)",
+    "bob_rise_m": "How far the bob's centre rises from the lowest point to the end of the swing",
+    "lowest_point_m": "Deepest point any part of the body reaches during the swing, below the "
+                      "pivot",
+    "outer_sweep_m": "Width swept by the outermost points of the body, the bob's own size "
+                     "included",
+    "floor_clearance_m": "Gap between the floor and the deepest point of the swing (needs the "
+                         "pivot's height above the floor)",
+    "barrier_margin_m": "Barrier radius less the farthest the body reaches from the vertical "
+                        "through the pivot (needs the barrier radius)",
+    "stretch_m": "Static elastic stretch of the rods or cable under the load hanging below "
+                 "each section (Hooke's law)",
+    "stretch_rate_s_per_day": "Rate change the static stretch causes",
+    "peak_stress_pa": "Largest tensile stress in a rod at the bottom of the swing: ideal, no "
+                      "safety factor; a qualified engineer must check the cable and fixing",
+    "peak_stress_ratio": "Peak stress over the material's yield (or tensile) strength, where "
+                         "the material table has one",
 }
 """What each figure is, in full, by its JSON key."""
 

@@ -7,9 +7,10 @@ from PySide6.QtWidgets import QTreeWidget, QTreeWidgetItem
 
 from app.readout.cells import TreeCells
 
-__all__ = ["mark_section", "toggle_section", "arrange_sections", "LOADS_SECTION"]
+__all__ = ["mark_section", "toggle_section", "arrange_sections", "LOADS_SECTION", "PLANNING_SECTION"]
 
 LOADS_SECTION = "Swing and loads"
+PLANNING_SECTION = "Exhibit planning"
 
 
 def mark_section(cells: TreeCells, head: QTreeWidgetItem) -> None:
@@ -37,7 +38,15 @@ def arrange_sections(tree: QTreeWidget, heads: dict[str, QTreeWidgetItem], cells
         tree.takeTopLevelItem(index)
         tree.insertTopLevelItem(wanted, loads)
         loads.setFirstColumnSpanned(True)
-    closed = ("Tuning",) if purpose == "exhibit" else ()
+    planning = heads.get(PLANNING_SECTION)
+    if planning is not None:  # an exhibit's planning figures right after its loads
+        index = tree.indexOfTopLevelItem(planning)
+        wanted = 1 if purpose == "exhibit" else tree.topLevelItemCount() - 1
+        if index != wanted:
+            tree.takeTopLevelItem(index)
+            tree.insertTopLevelItem(wanted, planning)
+            planning.setFirstColumnSpanned(True)
+    closed = ("Tuning",) if purpose == "exhibit" else (PLANNING_SECTION,)
     for title, head in heads.items():
         head.setExpanded(title not in closed)
         mark_section(cells, head)
