@@ -20,8 +20,9 @@ forms, editing by field path), :mod:`core.materials`, :mod:`core.gravity`,
 :mod:`core.rating_stability` (Allan deviation, Q from a decay).
 """
 
+from typing import TYPE_CHECKING, Any
+
 from .analysis import REPORT_KEYS, Result, analyse
-from .beats import BEATS_REPORT_KEYS, BeatAnalysis, analyse_recording, analyse_ticks, beats_text
 from .design import Design
 from .errors import DesignError
 from .fileformat import (
@@ -45,6 +46,32 @@ from .rating_log import (
     rating_log_to_dict,
 )
 from .rating_report import rating_report, rating_text
+
+if TYPE_CHECKING:
+    from .beats import (
+        BEATS_REPORT_KEYS,
+        BeatAnalysis,
+        analyse_recording,
+        analyse_ticks,
+        beats_text,
+    )
+
+# The recording analysis needs scipy.signal, scipy.ndimage, scipy.fft and scipy.io, which
+# nothing else does: it is imported when one of its names is first asked for, so the window
+# and a design's analysis do not pay for it.
+_BEATS_NAMES = frozenset({"BEATS_REPORT_KEYS", "BeatAnalysis", "analyse_recording",
+                          "analyse_ticks", "beats_text"})
+
+
+def __getattr__(name: str) -> Any:
+    """The recording analysis's names, imported on first use (PEP 562)."""
+    if name in _BEATS_NAMES:
+        from . import beats
+
+        value = getattr(beats, name)
+        globals()[name] = value
+        return value
+    raise AttributeError(f"module 'core' has no attribute {name!r}")
 
 __all__ = ["Design", "DesignError", "Result", "REPORT_KEYS", "analyse", "load_design",
            "save_design", "loads_design", "dumps_design", "design_from_dict", "design_to_dict",
