@@ -22,7 +22,6 @@ forms, editing by field path), :mod:`core.materials`, :mod:`core.gravity`,
 
 from typing import TYPE_CHECKING, Any
 
-from .analysis import REPORT_KEYS, Result, analyse
 from .design import Design
 from .errors import DesignError
 from .fileformat import (
@@ -34,7 +33,6 @@ from .fileformat import (
     save_design,
     with_value,
 )
-from .rating import Conditions, RatingFit, fit_rating
 from .rating_log import (
     Adjustment,
     DecayReading,
@@ -45,9 +43,9 @@ from .rating_log import (
     rating_log_to_csv,
     rating_log_to_dict,
 )
-from .rating_report import rating_report, rating_text
 
 if TYPE_CHECKING:
+    from .analysis import REPORT_KEYS, Result, analyse
     from .beats import (
         BEATS_REPORT_KEYS,
         BeatAnalysis,
@@ -55,23 +53,34 @@ if TYPE_CHECKING:
         analyse_ticks,
         beats_text,
     )
+    from .rating import Conditions, RatingFit, fit_rating
+    from .rating_report import rating_report, rating_text
 
-# The recording analysis needs scipy.signal, scipy.ndimage, scipy.fft and scipy.io, which
-# nothing else does: it is imported when one of its names is first asked for, so the window
-# and a design's analysis do not pay for it.
-_BEATS_NAMES = frozenset({"BEATS_REPORT_KEYS", "BeatAnalysis", "analyse_recording",
-                          "analyse_ticks", "beats_text"})
+# Reading, validating and writing a design is plain Python; the analysis needs numpy and
+# scipy.special, the recording analysis also scipy.signal, scipy.ndimage, scipy.fft and
+# scipy.io. Their names are imported when first asked for (PEP 562), so reading a file (and
+# the window's first paint) does not wait for them.
+_LAZY = {"REPORT_KEYS": "analysis", "Result": "analysis", "analyse": "analysis",
+         "Conditions": "rating", "RatingFit": "rating", "fit_rating": "rating",
+         "rating_report": "rating_report", "rating_text": "rating_report",
+         "BEATS_REPORT_KEYS": "beats", "BeatAnalysis": "beats", "analyse_recording": "beats",
+         "analyse_ticks": "beats", "beats_text": "beats"}
 
 
 def __getattr__(name: str) -> Any:
-    """The recording analysis's names, imported on first use (PEP 562)."""
-    if name in _BEATS_NAMES:
-        from . import beats
+    """A name of the analysis, the rating or the recording analysis, imported on first use."""
+    module = _LAZY.get(name)
+    if module is None:
+        raise AttributeError(f"module 'core' has no attribute {name!r}")
+    from importlib import import_module
 
-        value = getattr(beats, name)
-        globals()[name] = value
-        return value
-    raise AttributeError(f"module 'core' has no attribute {name!r}")
+    value = getattr(import_module(f".{module}", __name__), name)
+    globals()[name] = value
+    return value
+
+
+def __dir__() -> list[str]:
+    return sorted(set(globals()) | set(_LAZY))
 
 __all__ = ["Design", "DesignError", "Result", "REPORT_KEYS", "analyse", "load_design",
            "save_design", "loads_design", "dumps_design", "design_from_dict", "design_to_dict",
