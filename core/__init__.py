@@ -20,6 +20,8 @@ forms, editing by field path), :mod:`core.materials`, :mod:`core.gravity`,
 :mod:`core.rating_stability` (Allan deviation, Q from a decay).
 """
 
+import sys
+from types import ModuleType
 from typing import TYPE_CHECKING, Any
 
 from .design import Design
@@ -81,6 +83,19 @@ def __getattr__(name: str) -> Any:
 
 def __dir__() -> list[str]:
     return sorted(set(globals()) | set(_LAZY))
+
+
+class _Package(ModuleType):
+    """Python binds an imported submodule as an attribute of its package: importing
+    ``core.rating_report`` must not hide the function ``rating_report`` of the same name."""
+
+    def __setattr__(self, name: str, value: Any) -> None:
+        if name in _LAZY and isinstance(value, ModuleType):
+            return
+        super().__setattr__(name, value)
+
+
+sys.modules[__name__].__class__ = _Package
 
 __all__ = ["Design", "DesignError", "Result", "REPORT_KEYS", "analyse", "load_design",
            "save_design", "loads_design", "dumps_design", "design_from_dict", "design_to_dict",
