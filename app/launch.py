@@ -1,5 +1,9 @@
 """Starting the workbench window, or drawing it once offscreen for a screenshot.
 
+Before Qt is asked for a window on Linux's X11 platform, :func:`missing_xcb_libraries` looks
+for the system libraries Qt's ``xcb`` plugin needs beyond Qt itself; when one is missing the
+command prints one line naming the packages (Qt's own message names only the first).
+
 The window opens first and is filled after: reading a design file is plain Python, so the file
 is checked, the application made and a light first window (:func:`first_window`: the title,
 the window's colours, where it was last placed, "Opening …") painted before numpy, scipy,
@@ -10,8 +14,11 @@ for every result.
 
 from __future__ import annotations
 
+import ctypes
+import ctypes.util
 import os
 import sys
+from collections.abc import Callable
 from pathlib import Path
 from typing import TYPE_CHECKING
 
@@ -22,11 +29,22 @@ if TYPE_CHECKING:
     from core import Design
 
 __all__ = ["run_window", "open_window", "first_window", "default_design_path",
-           "SCREENSHOT_SIZE", "WINDOW_SIZE"]
+           "SCREENSHOT_SIZE", "WINDOW_SIZE", "view_names", "missing_xcb_libraries",
+           "XCB_LIBRARIES", "XCB_HINT", "ALL_VIEWS"]
 
 SCREENSHOT_SIZE = (1440, 900)
 WINDOW_SIZE = (1440, 900)
 """The window's size when no layout is remembered (px)."""
+ALL_VIEWS = "all"  # --view all: the plots together in the grid
+
+XCB_LIBRARIES = {  # library Qt's xcb plugin loads: its Debian/Ubuntu package
+    "xcb-cursor": ("libxcb-cursor.so.0", "libxcb-cursor0"),
+    "xcb-icccm": ("libxcb-icccm.so.4", "libxcb-icccm4"),
+    "xcb-keysyms": ("libxcb-keysyms.so.1", "libxcb-keysyms1"),
+}
+XCB_HINT = ("penduline: the window needs the system libraries {names} for Qt's X11 platform, "
+            "and {missing} cannot be found: on Debian/Ubuntu `apt install {packages}` "
+            "(other systems: the xcb-util-cursor, xcb-util-wm and xcb-util-keysyms packages)")
 
 
 def default_design_path() -> Path:
@@ -35,30 +53,84 @@ def default_design_path() -> Path:
             / "workshop_regulator.pendulum.json")
 
 
-def run_window(path: str | None, screenshot: str | None) -> int:
+def view_names() -> list[str]:
+    """The names ``--view`` accepts: each view's slug (from the catalogue), then ``all``."""
+    from app.views.catalogue import VIEWS
+
+    return [cls.slug for cls in VIEWS] + [ALL_VIEWS]
+
+
+def _library_loads(name: str, soname: str) -> bool:
+    """True when the dynamic loader finds ``soname`` (or ``find_library`` finds ``name``)."""
+    try:
+        ctypes.CDLL(soname)
+        return True
+    except OSError:
+        return ctypes.util.find_library(name) is not None
+
+
+def missing_xcb_libraries(finder: Callable[[str, str], bool] | None = None) -> list[str]:
+    """The Debian package names of the xcb libraries Qt's X11 plugin needs and that
+    ``finder(name, soname)`` (default: the dynamic loader) cannot find; empty when Qt will
+    not use X11 (another platform is chosen, no ``DISPLAY``, not Linux) or everything is
+    there."""
+    platform = os.environ.get("QT_QPA_PLATFORM", "")
+    if not sys.platform.startswith("linux") or platform not in ("", "xcb"):
+        return []
+    if not os.environ.get("DISPLAY"):
+        return []
+    if not platform and os.environ.get("WAYLAND_DISPLAY"):
+        return []  # Qt prefers Wayland when it is there
+    found = finder or _library_loads
+    return [package for name, (soname, package) in XCB_LIBRARIES.items()
+            if not found(name, soname)]
+
+
+def _refuse_without_xcb() -> bool:
+    """Print the one line and return True when the X11 platform cannot load."""
+    missing = missing_xcb_libraries()
+    if not missing:
+        return False
+    names = ", ".join(soname for soname, _ in XCB_LIBRARIES.values())
+    packages = " ".join(package for _, package in XCB_LIBRARIES.values())
+    print(XCB_HINT.format(names=names, missing=", ".join(missing), packages=packages),
+          file=sys.stderr)
+    return True
+
+
+def run_window(path: str | None, screenshot: str | None, view: str | None = None) -> int:
     """Open the workbench on the design at ``path`` (default: the built-in example).
 
     With ``screenshot``, the window is drawn offscreen (when there is no display) at
     1440×900 once everything is computed, saved as PNG to ``screenshot``, and 0 is returned.
+    ``view`` names the view on show (a slug of :data:`app.views.catalogue.VIEWS`, or
+    ``"all"`` for the plots together). Returns 1 when the window's system libraries are
+    missing (one line on stderr says which packages to install).
 
     Raises
     ------
     core.DesignError
-        When the file cannot be used (the command line prints it and exits with 2).
+        When the file cannot be used or ``view`` names no view (the command line prints it
+        and exits with 2).
     """
-    from core import load_design
+    from core import DesignError, load_design
 
     design_path = Path(path) if path else default_design_path()
     design = load_design(design_path)  # refuse a bad file before any window appears
+    if view is not None and view not in view_names():
+        raise DesignError("--view", f"there is no view {view!r}; the views are "
+                                    f"{', '.join(view_names())}")
     if screenshot and not (os.environ.get("DISPLAY") or os.environ.get("WAYLAND_DISPLAY")):
         os.environ["QT_QPA_PLATFORM"] = "offscreen"
+    if _refuse_without_xcb():
+        return 1
 
     from PySide6.QtWidgets import QApplication
 
     app = QApplication.instance() or QApplication(sys.argv[:1])
     assert isinstance(app, QApplication)
     window = open_window(app, design, design_path if path else None,
-                         remember_layout=not screenshot, first=not screenshot)
+                         remember_layout=not screenshot, first=not screenshot, view=view)
     if screenshot:
         return _screenshot(app, window, Path(screenshot))
     window.offer_recovery()  # edits autosaved by a run that crashed
@@ -66,8 +138,10 @@ def run_window(path: str | None, screenshot: str | None) -> int:
 
 
 def open_window(app: QApplication, design: Design, path: Path | None,
-                remember_layout: bool = True, first: bool = True) -> MainWindow:
-    """Show the workbench on ``design`` (read from ``path``; None: an example, unnamed).
+                remember_layout: bool = True, first: bool = True,
+                view: str | None = None) -> MainWindow:
+    """Show the workbench on ``design`` (read from ``path``; None: an example, unnamed), with
+    ``view`` on show (see :func:`run_window`).
 
     With ``first``, a light window (:func:`first_window`) is painted before the heavy
     imports and replaced by the workbench, which is shown before its analysis (queued by the
@@ -80,6 +154,8 @@ def open_window(app: QApplication, design: Design, path: Path | None,
     app.setOrganizationName(ORGANISATION)
     app.setApplicationName(APPLICATION)
     window = MainWindow(design, path, remember_layout=remember_layout)
+    if view is not None:
+        _show_view(window, view)
     if shell is not None:
         if not remember_layout:
             window.setGeometry(shell.geometry())
@@ -116,6 +192,18 @@ def first_window(app: QApplication, name: str, remember_layout: bool = True) -> 
     shell.repaint()
     app.processEvents(QEventLoop.ProcessEventsFlag.ExcludeUserInputEvents)
     return shell
+
+
+def _show_view(window: object, view: str) -> None:
+    """Bring ``view`` on show: ``all`` is the grid page; a view's slug its own tab."""
+    area = window.plot_area  # type: ignore[attr-defined]
+    if view == ALL_VIEWS:
+        area.set_arrangement("grid")
+        area.show_plot(0)
+        return
+    index = next(i for i, plot in enumerate(area.plots) if plot.slug == view)
+    area.set_arrangement("tabs")
+    area.show_plot(index)
 
 
 def _screenshot(app: object, window: object, out: Path) -> int:
