@@ -341,7 +341,8 @@ def with_value(design: Design, path: str, value: Any) -> Design:
     """
     text = design_to_dict(design)
     log = design.rating_log
-    if log is None or path.split(".")[0].split("[")[0] == "rating_log" or not is_validated(design):
+    if (log is None or path.split(".")[0].split("[")[0] in ("rating_log", "version", "format")
+            or not is_validated(design)):
         return design_from_dict(set_in_dict(text, path, value))
     del text["rating_log"]
     return mark_validated(replace(design_from_dict(set_in_dict(text, path, value)),

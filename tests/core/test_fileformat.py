@@ -524,6 +524,8 @@ def test_an_edit_outside_the_rating_log_keeps_the_log_and_equals_a_full_reading(
     with pytest.raises(DesignError) as refused:  # the rest of the file is still checked
         with_value(design, "parts[0].length_m", -1.0)
     assert refused.value.field == "parts[0].length_m"
+    with pytest.raises(DesignError):  # the version is checked against the whole file
+        with_value(design, "version", 1)
     with pytest.raises(DesignError) as refused:  # and an edit in the log reads the log
         with_value(design, "rating_log.readings[0].temperature_c", "warm")
     assert refused.value.field == "rating_log.readings[0].temperature_c"
