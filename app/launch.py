@@ -3,6 +3,13 @@
 Before Qt is asked for a window on Linux's X11 platform, :func:`missing_xcb_libraries` looks
 for the system libraries Qt's ``xcb`` plugin needs beyond Qt itself; when one is missing the
 command prints one line naming the packages (Qt's own message names only the first).
+
+The window opens first and is filled after: reading a design file is plain Python, so the file
+is checked, the application made and a light first window (:func:`first_window`: the title,
+the window's colours, where it was last placed, "Opening …") painted before numpy, scipy,
+pyqtgraph and the views are imported; then the workbench replaces it at the same place and
+the analysis is shown as soon as it is done. A screenshot skips the first window and waits
+for every result.
 """
 
 from __future__ import annotations
@@ -13,11 +20,21 @@ import os
 import sys
 from collections.abc import Callable
 from pathlib import Path
+from typing import TYPE_CHECKING
 
-__all__ = ["run_window", "default_design_path", "SCREENSHOT_SIZE", "view_names",
-           "missing_xcb_libraries", "XCB_LIBRARIES", "XCB_HINT", "ALL_VIEWS"]
+if TYPE_CHECKING:
+    from PySide6.QtWidgets import QApplication, QMainWindow
+
+    from app.window.main_window import MainWindow
+    from core import Design
+
+__all__ = ["run_window", "open_window", "first_window", "default_design_path",
+           "SCREENSHOT_SIZE", "WINDOW_SIZE", "view_names", "missing_xcb_libraries",
+           "XCB_LIBRARIES", "XCB_HINT", "ALL_VIEWS"]
 
 SCREENSHOT_SIZE = (1440, 900)
+WINDOW_SIZE = (1440, 900)
+"""The window's size when no layout is remembered (px)."""
 ALL_VIEWS = "all"  # --view all: the plots together in the grid
 
 XCB_LIBRARIES = {  # library Qt's xcb plugin loads: its Debian/Ubuntu package
@@ -110,21 +127,71 @@ def run_window(path: str | None, screenshot: str | None, view: str | None = None
 
     from PySide6.QtWidgets import QApplication
 
-    from app.document.settings import APPLICATION, ORGANISATION
-    from app.window.main_window import MainWindow
-
     app = QApplication.instance() or QApplication(sys.argv[:1])
-    app.setOrganizationName(ORGANISATION)
-    app.setApplicationName(APPLICATION)
-    window = MainWindow(design, design_path if path else None,
-                        remember_layout=not screenshot)
-    if view is not None:
-        _show_view(window, view)
+    assert isinstance(app, QApplication)
+    window = open_window(app, design, design_path if path else None,
+                         remember_layout=not screenshot, first=not screenshot, view=view)
     if screenshot:
         return _screenshot(app, window, Path(screenshot))
-    window.show()
     window.offer_recovery()  # edits autosaved by a run that crashed
     return int(app.exec())
+
+
+def open_window(app: QApplication, design: Design, path: Path | None,
+                remember_layout: bool = True, first: bool = True,
+                view: str | None = None) -> MainWindow:
+    """Show the workbench on ``design`` (read from ``path``; None: an example, unnamed), with
+    ``view`` on show (see :func:`run_window`).
+
+    With ``first``, a light window (:func:`first_window`) is painted before the heavy
+    imports and replaced by the workbench, which is shown before its analysis (queued by the
+    window) is done. Without it (a screenshot), the workbench is made but not shown.
+    """
+    shell = first_window(app, design.name, remember_layout) if first else None
+    from app.document.settings import APPLICATION, ORGANISATION  # numpy, scipy: the heavy part
+    from app.window.main_window import MainWindow
+
+    app.setOrganizationName(ORGANISATION)
+    app.setApplicationName(APPLICATION)
+    window = MainWindow(design, path, remember_layout=remember_layout)
+    if view is not None:
+        _show_view(window, view)
+    if shell is not None:
+        if not remember_layout:
+            window.setGeometry(shell.geometry())
+        window.show()
+        shell.close()
+        shell.deleteLater()
+    return window
+
+
+def first_window(app: QApplication, name: str, remember_layout: bool = True) -> QMainWindow:
+    """A window with the workbench's title, colours and place, saying the design is opening;
+    painted before returning. It imports only Qt and the theme (no numpy, no scipy)."""
+    from PySide6.QtCore import QByteArray, QEventLoop, QSettings, Qt
+    from PySide6.QtWidgets import QLabel, QMainWindow
+
+    from app.theme import STYLE_SHEET
+
+    shell = QMainWindow()
+    shell.setStyleSheet(STYLE_SHEET)
+    shell.setWindowTitle(f"{name} — Penduline")
+    label = QLabel(f"Opening {name}…")
+    label.setProperty("role", "hint")
+    label.setAlignment(Qt.AlignmentFlag.AlignCenter)
+    shell.setCentralWidget(label)
+    geometry = None
+    if remember_layout:  # where the workbench will restore itself (app.document.settings)
+        geometry = QSettings(QSettings.Format.IniFormat, QSettings.Scope.UserScope, "Penduline",
+                             "Penduline").value("window/geometry")
+    if isinstance(geometry, QByteArray) and not geometry.isEmpty():
+        shell.restoreGeometry(geometry)
+    else:
+        shell.resize(*WINDOW_SIZE)
+    shell.show()
+    shell.repaint()
+    app.processEvents(QEventLoop.ProcessEventsFlag.ExcludeUserInputEvents)
+    return shell
 
 
 def _show_view(window: object, view: str) -> None:

@@ -20,8 +20,10 @@ forms, editing by field path), :mod:`core.materials`, :mod:`core.gravity`,
 :mod:`core.rating_stability` (Allan deviation, Q from a decay).
 """
 
-from .analysis import REPORT_KEYS, Result, analyse
-from .beats import BEATS_REPORT_KEYS, BeatAnalysis, analyse_recording, analyse_ticks, beats_text
+import sys
+from types import ModuleType
+from typing import TYPE_CHECKING, Any
+
 from .design import Design
 from .errors import DesignError
 from .fileformat import (
@@ -33,7 +35,6 @@ from .fileformat import (
     save_design,
     with_value,
 )
-from .rating import Conditions, RatingFit, fit_rating
 from .rating_log import (
     Adjustment,
     DecayReading,
@@ -44,7 +45,57 @@ from .rating_log import (
     rating_log_to_csv,
     rating_log_to_dict,
 )
-from .rating_report import rating_report, rating_text
+
+if TYPE_CHECKING:
+    from .analysis import REPORT_KEYS, Result, analyse
+    from .beats import (
+        BEATS_REPORT_KEYS,
+        BeatAnalysis,
+        analyse_recording,
+        analyse_ticks,
+        beats_text,
+    )
+    from .rating import Conditions, RatingFit, fit_rating
+    from .rating_report import rating_report, rating_text
+
+# Reading, validating and writing a design is plain Python; the analysis needs numpy and
+# scipy.special, the recording analysis also scipy.signal, scipy.ndimage, scipy.fft and
+# scipy.io. Their names are imported when first asked for (PEP 562), so reading a file (and
+# the window's first paint) does not wait for them.
+_LAZY = {"REPORT_KEYS": "analysis", "Result": "analysis", "analyse": "analysis",
+         "Conditions": "rating", "RatingFit": "rating", "fit_rating": "rating",
+         "rating_report": "rating_report", "rating_text": "rating_report",
+         "BEATS_REPORT_KEYS": "beats", "BeatAnalysis": "beats", "analyse_recording": "beats",
+         "analyse_ticks": "beats", "beats_text": "beats"}
+
+
+def __getattr__(name: str) -> Any:
+    """A name of the analysis, the rating or the recording analysis, imported on first use."""
+    module = _LAZY.get(name)
+    if module is None:
+        raise AttributeError(f"module 'core' has no attribute {name!r}")
+    from importlib import import_module
+
+    value = getattr(import_module(f".{module}", __name__), name)
+    globals()[name] = value
+    return value
+
+
+def __dir__() -> list[str]:
+    return sorted(set(globals()) | set(_LAZY))
+
+
+class _Package(ModuleType):
+    """Python binds an imported submodule as an attribute of its package: importing
+    ``core.rating_report`` must not hide the function ``rating_report`` of the same name."""
+
+    def __setattr__(self, name: str, value: Any) -> None:
+        if name in _LAZY and isinstance(value, ModuleType):
+            return
+        super().__setattr__(name, value)
+
+
+sys.modules[__name__].__class__ = _Package
 
 __all__ = ["Design", "DesignError", "Result", "REPORT_KEYS", "analyse", "load_design",
            "save_design", "loads_design", "dumps_design", "design_from_dict", "design_to_dict",

@@ -28,6 +28,7 @@ from .period import period_exact
 from .phase import PhasePortrait, phase_portrait
 from .pivot import PivotFigures, pivot_figures
 from .tuning import BudgetRanges, RateBudget, Sensitivities, rate_budget, sensitivities
+from .validate import is_validated
 
 __all__ = ["Result", "PeriodCurve", "analyse", "REPORT_KEYS", "LOAD_CAUTION", "SPRING_CAUTION",
            "AIRY_CAUTION", "HEAVY_LOAD_N", "LOAD_CAUTION_MASS_KG", "LONG_PENDULUM_M",
@@ -203,8 +204,11 @@ def finite_or_none(value: Any) -> Any:
 
 
 def _validated(design: Design | dict[str, Any]) -> Design:
-    """Check any design object (or a parsed file dict) through the one validator."""
+    """Check any design object (or a parsed file dict) through the one validator (a design
+    the validator made is immutable and passes as it is)."""
     if isinstance(design, Design):
+        if is_validated(design):
+            return design
         try:
             text = design_to_dict(design)
         except (AttributeError, TypeError, KeyError) as exc:  # a Design built by hand, badly

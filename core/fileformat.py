@@ -13,6 +13,7 @@ import copy
 import json
 import os
 import stat
+from dataclasses import replace
 from pathlib import Path
 from typing import Any
 
@@ -21,7 +22,15 @@ from .atomic_write import write_text_atomic as _atomic_write
 from .design import Bob, ClampMount, Design, Part, Rod, Sleeve
 from .errors import DesignError, guarded
 from .fields import FieldPath, field_spec
-from .validate import FORMAT, SECTIONS, VERSION, check_number, design_from_dict
+from .validate import (
+    FORMAT,
+    SECTIONS,
+    VERSION,
+    check_number,
+    design_from_dict,
+    is_validated,
+    mark_validated,
+)
 from .validate_parts import BOB_SIZE_KEYS
 
 __all__ = [
@@ -325,5 +334,16 @@ def set_in_dict(obj: Any, path: str, value: Any) -> Any:
 
 @guarded("field")
 def with_value(design: Design, path: str, value: Any) -> Design:
-    """A new validated design equal to ``design`` but with ``path`` set to ``value``."""
-    return design_from_dict(set_in_dict(design_to_dict(design), path, value))
+    """A new validated design equal to ``design`` but with ``path`` set to ``value``.
+
+    The rating log is read on its own (it refers to nothing else in the file), so an edit
+    elsewhere keeps the validated log as it is instead of reading every reading again.
+    """
+    text = design_to_dict(design)
+    log = design.rating_log
+    if (log is None or path.split(".")[0].split("[")[0] in ("rating_log", "version", "format")
+            or not is_validated(design)):
+        return design_from_dict(set_in_dict(text, path, value))
+    del text["rating_log"]
+    return mark_validated(replace(design_from_dict(set_in_dict(text, path, value)),
+                                  rating_log=log))

@@ -41,8 +41,6 @@ import math
 from dataclasses import dataclass
 from functools import lru_cache
 
-from scipy.integrate import quad
-
 from .air import ellipsoid_added_mass_coefficient
 from .design import Bob, ClampMount, Design, Rod, Sleeve, Weight
 from .materials import Material
@@ -169,6 +167,8 @@ def _slice(y: float, r: float, radius: float, thickness: float, lens: bool) -> t
 def _flat_hole(r: float, radius: float, thickness: float, lens: bool) -> tuple[float, float]:
     """(V_h m³, J_h m⁵) of the bore through a disc or lens (module notes), by quadrature over
     y = r sin ψ so the integrand stays smooth where the bore's edge leaves the slice."""
+    from scipy.integrate import quad  # only a bored disc or lens needs it (start-up cost)
+
     psi_max = math.asin(min(1.0, thickness / (2.0 * r)))
     points = []
     if lens:  # where √(r² − y²) = √A(y): y² − (2R²/t) y + R² − r² = 0

@@ -12,6 +12,7 @@ attribute it fills, a reader and a writer.
 from __future__ import annotations
 
 import math
+import weakref
 from collections.abc import Callable
 from dataclasses import dataclass
 from typing import Any
@@ -33,7 +34,7 @@ from .materials import MATERIALS, Material
 from .rating_log import rating_log_from_dict, rating_log_to_dict
 
 __all__ = ["FORMAT", "VERSION", "READABLE_VERSIONS", "check_number", "design_from_dict",
-           "Reader", "SECTIONS", "Section", "kind_of", "shown"]
+           "is_validated", "mark_validated", "Reader", "SECTIONS", "Section", "kind_of", "shown"]
 
 FORMAT = "penduline-design"
 VERSION = 2
@@ -345,9 +346,26 @@ def design_from_dict(obj: Any) -> Design:
         For any problem, naming the field.
     """
     try:
-        return _design_from_dict(obj)
+        return mark_validated(_design_from_dict(obj))
     except RecursionError:
         raise DesignError("file", "is nested too deeply to be a design") from None
+
+
+_VALIDATED: weakref.WeakValueDictionary[int, Design] = weakref.WeakValueDictionary()
+"""The live designs this validator made (by identity), so they need not be checked again."""
+
+
+def mark_validated(design: Design) -> Design:
+    """Note that ``design`` came out of the validator (or was made from one that did, with
+    a validated section put in unchanged); returns it."""
+    _VALIDATED[id(design)] = design
+    return design
+
+
+def is_validated(design: object) -> bool:
+    """Whether ``design`` is a live design this validator made (designs are immutable, so one
+    that passed once passes again; a Design built by hand is not)."""
+    return _VALIDATED.get(id(design)) is design
 
 
 def _version(r: Reader) -> int:

@@ -6,8 +6,10 @@ ticks found, rejected and missing, timing scatter and the warnings. Formatting o
 from __future__ import annotations
 
 import html
+from typing import TYPE_CHECKING
 
-from core.beats import BeatAnalysis
+if TYPE_CHECKING:  # the recording analysis (scipy.signal…) loads when first used
+    from core.beats import BeatAnalysis
 
 __all__ = ["figures_html", "verdict"]
 

@@ -16,7 +16,7 @@ give the tick's position in the analysis's arrays. Only unit changes (s → ms, 
 
 from __future__ import annotations
 
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
 import numpy as np
 import pyqtgraph as pg
@@ -27,7 +27,9 @@ from PySide6.QtWidgets import QWidget
 from app import theme
 from app.views.axes import pen
 from app.views.rating_plots import style_plot
-from core.beats import BeatAnalysis
+
+if TYPE_CHECKING:  # the recording analysis (scipy.signal…) loads when first used
+    from core.beats import BeatAnalysis
 
 __all__ = ["IntervalPlot", "ResidualPlot", "WaveformPlot", "TICK", "TOCK", "TICK_SYMBOL",
            "TOCK_SYMBOL", "REJECTED_SYMBOL"]

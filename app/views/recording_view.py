@@ -19,7 +19,7 @@ through the document. The recording is not part of the design: only its path is 
 from __future__ import annotations
 
 from pathlib import Path
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
 from PySide6.QtCore import QSignalBlocker, QSize, Qt
 from PySide6.QtWidgets import (
@@ -44,9 +44,11 @@ from app.views.recording_figures import figures_html
 from app.views.recording_plots import IntervalPlot, ResidualPlot, WaveformPlot
 from app.views.recording_worker import RecordingAnalyser, Request, refusal_sentence
 from core import Design, DesignError, Result
-from core.beats import BeatAnalysis, tick_waveform
 from core.rating_model import fit_model_to_clock, reference_conditions
-from core.recording import WavSource, open_recording
+
+if TYPE_CHECKING:  # the recording analysis (scipy.signal…) loads when first used
+    from core.beats import BeatAnalysis
+    from core.recording import WavSource
 
 __all__ = ["RecordingView", "CHANNELS", "LAST_PATH_KEY"]
 
@@ -255,6 +257,8 @@ class RecordingView(QWidget):
         self.file_label.setText(path.name)
         self.file_label.setToolTip(str(path))
         try:
+            from core.recording import open_recording
+
             self.source = open_recording(path, None)
         except DesignError as exc:  # unreadable: no need to start a worker
             self.source = None
@@ -337,6 +341,9 @@ class RecordingView(QWidget):
         with QSignalBlocker(self.tick_spin):
             self.tick_spin.setValue(position + 1)
         time_s = float(a.tick_times_s[position])
+        from core.beats import tick_waveform
+        from core.recording import open_recording
+
         try:
             source = self.source if self._channel() is None else \
                 open_recording(self.source.path, self._channel())

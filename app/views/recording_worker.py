@@ -14,11 +14,14 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 from PySide6.QtCore import QObject, QRunnable, QThreadPool, Signal
 
 from core import DesignError
-from core.beats import BeatAnalysis, analyse_recording
+
+if TYPE_CHECKING:  # the recording analysis (scipy.signal…) loads when first used
+    from core.beats import BeatAnalysis
 
 __all__ = ["Request", "RecordingAnalyser", "refusal_sentence"]
 
@@ -55,6 +58,8 @@ class _Job(QRunnable):
     def run(self) -> None:  # on a pool thread
         request = self.request
         try:
+            from core.beats import analyse_recording
+
             analysis = analyse_recording(request.path, None, request.channel)
         except DesignError as exc:
             self.signals.failed.emit(self.serial, request, refusal_sentence(request.path, exc))

@@ -39,3 +39,59 @@ def test_a_bad_file_exits_2_with_one_line_naming_the_field(tmp_path: Path) -> No
     lines = done.stderr.strip().splitlines()
     assert len(lines) == 1 and lines[0].startswith("penduline: parts[0].length_m:")
     assert not (tmp_path / "x.png").exists()
+
+
+def test_the_first_window_is_painted_before_numpy_and_scipy_are_imported() -> None:
+    code = """
+import sys
+from PySide6.QtCore import QEvent, QObject
+from PySide6.QtWidgets import QApplication
+from core import load_design
+from app.launch import default_design_path, first_window
+
+design = load_design(default_design_path())
+app = QApplication(sys.argv[:1])
+painted = []
+
+class Watch(QObject):
+    def eventFilter(self, obj, event):
+        if event.type() == QEvent.Type.Paint:
+            painted.append(obj)
+        return False
+
+watch = Watch()
+app.installEventFilter(watch)
+shell = first_window(app, design.name, remember_layout=False)
+heavy = sorted(m for m in ("numpy", "scipy", "pyqtgraph") if m in sys.modules)
+print(len(painted) > 0, shell.windowTitle(), heavy)
+"""
+    env = {**os.environ, "QT_QPA_PLATFORM": "offscreen"}
+    done = subprocess.run([sys.executable, "-c", code], cwd=ROOT, env=env, capture_output=True,
+                          text=True, timeout=120)
+    assert done.returncode == 0, done.stderr
+    assert done.stdout.strip() == "True Workshop regulator — Penduline []", done.stdout
+
+
+def test_the_workbench_replaces_the_first_window_at_its_place(qapp) -> None:  # type: ignore[no-untyped-def]
+    from PySide6.QtWidgets import QApplication, QWidget
+
+    from app.document.settings import app_settings
+    from app.launch import first_window, open_window
+    from core import load_design
+
+    app_settings().clear()
+    placed = QWidget()
+    placed.setGeometry(40, 60, 700, 500)  # within the offscreen screen (800×600)
+    app_settings().setValue("window/geometry", placed.saveGeometry())  # as the window keeps it
+    shell = first_window(qapp, "x", remember_layout=True)
+    assert (shell.width(), shell.height()) == (700, 500)  # where the workbench will restore
+    shell.close()
+    window = open_window(qapp, load_design(EXAMPLE), EXAMPLE, remember_layout=True)
+    try:
+        assert window.isVisible()
+        shown = [w for w in QApplication.topLevelWidgets() if w.isVisible()]
+        assert shown == [window]  # the first window is gone
+    finally:
+        window.document.undo_stack.setClean()
+        window.close()
+        app_settings().clear()

@@ -507,3 +507,30 @@ class TestWithValue:
         d: Design = design_from_dict(base())
         with pytest.raises(AttributeError):
             d.name = "x"  # type: ignore[misc]
+
+
+def test_an_edit_outside_the_rating_log_keeps_the_log_and_equals_a_full_reading() -> None:
+    # plain equality: the shortcut must give the design a full validation would give
+    from dataclasses import replace
+
+    from core.fileformat import set_in_dict
+
+    design = load_design(ROOT / "resources/examples/workshop_regulator.pendulum.json")
+    assert design.rating_log is not None and design.rating_log.readings
+    edited = with_value(design, "parts[0].length_m", 1.2)
+    full = design_from_dict(set_in_dict(design_to_dict(design), "parts[0].length_m", 1.2))
+    assert edited == full and edited.parts[0].length_m == 1.2  # type: ignore[union-attr]
+    assert edited.rating_log is design.rating_log
+    with pytest.raises(DesignError) as refused:  # the rest of the file is still checked
+        with_value(design, "parts[0].length_m", -1.0)
+    assert refused.value.field == "parts[0].length_m"
+    with pytest.raises(DesignError):  # the version is checked against the whole file
+        with_value(design, "version", 1)
+    with pytest.raises(DesignError) as refused:  # and an edit in the log reads the log
+        with_value(design, "rating_log.readings[0].temperature_c", "warm")
+    assert refused.value.field == "rating_log.readings[0].temperature_c"
+    # a design built by hand is not taken on trust by the analysis
+    swing = replace(design.swing, amplitude_deg=-5.0)
+    with pytest.raises(DesignError) as refused:
+        analyse(replace(edited, swing=swing))
+    assert refused.value.field == "swing.amplitude_deg"

@@ -155,3 +155,16 @@ def test_text_form_names_segments_and_correction() -> None:
     text = rating_text(rating_report(_design(), _demo()))
     assert "segment 1:" in text and "segment 2:" in text
     assert "turn the rating nut" in text and "Q:" in text
+
+
+def test_the_function_rating_report_is_not_hidden_by_its_module() -> None:
+    # Python binds a submodule on its package; the package's function keeps the name
+    import importlib
+
+    import core
+
+    importlib.import_module("core.rating_report")
+    from core import rating_report, rating_text
+
+    assert callable(rating_report) and callable(rating_text)
+    assert core.rating_report is rating_report
