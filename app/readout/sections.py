@@ -7,7 +7,8 @@ from PySide6.QtWidgets import QTreeWidget, QTreeWidgetItem
 
 from app.readout.cells import TreeCells
 
-__all__ = ["mark_section", "toggle_section", "arrange_sections", "LOADS_SECTION", "PLANNING_SECTION"]
+__all__ = ["mark_section", "toggle_section", "arrange_sections", "LOADS_SECTION",
+           "PLANNING_SECTION"]
 
 LOADS_SECTION = "Swing and loads"
 PLANNING_SECTION = "Exhibit planning"
