@@ -28,6 +28,7 @@ from app.form import design_edits
 from app.form.field_rows import ChoiceRow, NumberRow, Row, TextRow
 from app.form.labels import FIELD_LABELS, field_label
 from app.form.part_editor import PartsSection
+from app.form.pivot_control import PivotControl
 from app.form.units import UnitSystem
 from core import Design, DesignError, Result, design_to_dict
 from core.fileformat import get_value
@@ -143,6 +144,8 @@ class DesignPanel(PartsSection, QScrollArea):
         form = self._group("Suspension")
         self._choice(form, "suspension.kind", _SUSPENSIONS)
         self._number(form, "suspension.stiffness_n_m_per_rad")
+        self.pivot_control = PivotControl(self.document, self._system, self)
+        self.pivot_control.add_to(form)
 
     def _build_swing_group(self) -> None:
         form = self._group("Swing")
@@ -224,6 +227,7 @@ class DesignPanel(PartsSection, QScrollArea):
         for row in self.all_rows().values():
             if isinstance(row, NumberRow):
                 row.set_unit_system(system)
+        self.pivot_control.set_unit_system(system)
 
     # ================================================================== widgets → model
     def _apply(self, make: Callable[[], Design], path: str, text: str,

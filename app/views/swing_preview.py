@@ -18,6 +18,7 @@ from PySide6 import QtCore, QtGui, QtWidgets
 from app import theme
 from app.views.axes import style_axis
 from app.views.base import DRAG_MARGIN, KEEP_FILL, ResultView
+from app.views.pivot_marks import PivotMarks
 from app.views.swing_animation import (
     SPEED_LABELS,
     SPEEDS,
@@ -82,6 +83,7 @@ class SwingPreview(ResultView, SwingAnimation):
         self._setup_animation(clock)
         self._setup_axes()
         self._envelope = Envelope(self.getPlotItem().getViewBox())
+        self.marks = PivotMarks()
         self._setup_overlay()
         self._setup_clearance_line()
 
@@ -142,6 +144,8 @@ class SwingPreview(ResultView, SwingAnimation):
         self._deepest_m = max(deepest_point_m(outlines, self._clock.amplitude_rad),
                               float(result.exhibit.lowest_point_m))
         self._drawing = self._placed(self._drawing, outlines, ghost=False)
+        self.marks.attach(self._drawing.group)
+        self.marks.update(result)
         if baseline is None:
             if self._ghost is not None:
                 self.getPlotItem().getViewBox().removeItem(self._ghost.group)
@@ -233,13 +237,17 @@ class SwingPreview(ResultView, SwingAnimation):
         """The paths over the swing, and their legend (the bob centre's only with a bob)."""
         bob = self._envelope.update(math.radians(float(result.amplitude_deg)), self._deepest_m,
                                     outlines)
-        names = (("Path of bob centre",) if bob else ()) + ("Path of lowest point",)
+        marks = self.marks.legend_entries()
+        names = ((("Path of bob centre",) if bob else ()) + ("Path of lowest point",)
+                 + tuple(text for _item, text in marks))
         if names != self._legend_names:
             self._legend_names = names
             self._legend.clear()
             if bob:
                 self._legend.addItem(self._envelope.centre_arc, names[0])
-            self._legend.addItem(self._envelope.lowest_arc, names[-1])
+            self._legend.addItem(self._envelope.lowest_arc, "Path of lowest point")
+            for item, text in marks:
+                self._legend.addItem(item, text)
 
     def _fit_view(self) -> None:
         """Show the whole pendulum, its sweep and the clearance line, to scale."""

@@ -1,0 +1,122 @@
+"""Marks on the swing preview's hanging axis: the centre of mass, the centre of oscillation and
+the shortest-period pivot, and a legend entry for the pivot.
+
+Each mark is a small symbol of fixed screen size and its own shape (not told apart by colour
+alone), named in the preview's legend. The marks are children of the drawing's group, so they
+swing with the body. Their depths below the pivot are the core's figures (``Result``); nothing
+is computed here but a difference of two of them.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import pyqtgraph as pg
+from PySide6 import QtCore, QtGui
+
+from app import theme
+from core import Result
+
+__all__ = ["PivotMarks", "Mark", "MARKS", "mark_depths_m"]
+
+
+@dataclass(frozen=True)
+class Mark:
+    """One mark: its key, legend text, symbol and colours."""
+
+    key: str
+    label: str
+    symbol: str | QtGui.QPainterPath
+    size: float
+    pen: str
+    brush: str
+
+
+def _centre_of_mass_symbol() -> QtGui.QPainterPath:
+    """A circle with two opposite quarters filled (the drafting sign for a centre of mass),
+    in pyqtgraph's unit square (−0.5 … 0.5)."""
+    path = QtGui.QPainterPath()
+    path.addEllipse(QtCore.QPointF(0.0, 0.0), 0.5, 0.5)
+    for start in (0.0, 180.0):
+        path.moveTo(0.0, 0.0)
+        path.arcTo(QtCore.QRectF(-0.5, -0.5, 1.0, 1.0), start, 90.0)
+        path.closeSubpath()
+    return path
+
+
+def _pivot_symbol() -> QtGui.QPainterPath:
+    """The pivot's bracket and dot, as drawn at the origin, for the legend's sample."""
+    path = QtGui.QPainterPath()
+    path.moveTo(-0.5, 0.1)
+    path.lineTo(0.5, 0.1)
+    for x in (-0.4, -0.15, 0.1, 0.35):
+        path.moveTo(x + 0.1, 0.1)
+        path.lineTo(x - 0.1, -0.15)
+    path.addEllipse(QtCore.QPointF(0.0, 0.1), 0.1, 0.1)
+    return path
+
+
+MARKS: tuple[Mark, ...] = (
+    Mark("centre_of_mass", "Centre of mass", _centre_of_mass_symbol(), 11.0,
+         theme.INK, theme.INK),
+    Mark("centre_of_oscillation", "Centre of oscillation", "d", 10.0,
+         theme.DIFFERENCE, "#f4e8f2"),
+    Mark("shortest_period_pivot", "Shortest-period pivot", "t1", 11.0,
+         theme.MARKER, "#e3f1ea"),
+)
+
+
+def mark_depths_m(result: Result) -> dict[str, float | None]:
+    """Depth below the pivot of each mark, m (None where the core gives no figure)."""
+    h = float(result.centre_of_mass_m)
+    p = result.pivot
+    shortest = None if p is None or p.shortest_period_pivot_m is None \
+        else h - float(p.shortest_period_pivot_m)
+    return {"centre_of_mass": h,
+            "centre_of_oscillation": float(result.centre_of_oscillation_m),
+            "shortest_period_pivot": shortest}
+
+
+class PivotMarks:
+    """The marks' items: made once, moved for each result, carried by the drawing's group."""
+
+    def __init__(self) -> None:
+        self.items: dict[str, pg.ScatterPlotItem] = {}
+        for mark in MARKS:
+            item = pg.ScatterPlotItem(pxMode=True, symbol=mark.symbol, size=mark.size,
+                                      pen=pg.mkPen(mark.pen, width=1.6),
+                                      brush=pg.mkBrush(mark.brush), name=mark.label)
+            item.setZValue(12)
+            self.items[mark.key] = item
+        self.pivot_sample = pg.ScatterPlotItem(pxMode=True, symbol=_pivot_symbol(), size=22.0,
+                                               pen=pg.mkPen(theme.INK, width=1.4),
+                                               brush=pg.mkBrush(theme.INK), name="Pivot")
+        self._depths: dict[str, float | None] = {}
+
+    def attach(self, group: QtGui.QGraphicsItem) -> None:
+        """Make the marks children of ``group`` (the drawing that swings)."""
+        for item in self.items.values():
+            if item.parentItem() is not group:
+                item.setParentItem(group)
+
+    def update(self, result: Result) -> None:
+        """Place each mark on the hanging axis at its depth (hidden where it has none)."""
+        depths = mark_depths_m(result)
+        if depths == self._depths:
+            return
+        self._depths = depths
+        for key, item in self.items.items():
+            depth = depths[key]
+            item.setVisible(depth is not None)
+            item.setData([0.0], [0.0 if depth is None else depth])
+
+    def depths_m(self) -> dict[str, float | None]:
+        """Where each mark is drawn, m below the pivot, at rest (None: not shown)."""
+        return dict(self._depths)
+
+    def legend_entries(self) -> list[tuple[pg.ScatterPlotItem, str]]:
+        """(sample item, text) for the legend: the pivot, then each mark shown."""
+        entries = [(self.pivot_sample, "Pivot")]
+        entries += [(self.items[m.key], m.label) for m in MARKS
+                    if self._depths.get(m.key) is not None]
+        return entries
