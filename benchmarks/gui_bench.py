@@ -4,7 +4,8 @@ Opens the example offscreen at 1440×900 in each plot arrangement: "tabs" (the d
 plot on view) and "grid" (View ▸ Show plots together: motion, phase plane, period curve and
 swing preview on view at once). In each it drags the rod length through successive values
 along the path a spin box uses (``stepBy`` → live preview → coalesced analysis → ``setData``
-on the plots on view and the readout), twice:
+on the plots on view and the readout), and then drags the pivot along the body the same way
+(each step moves every part), twice each:
 
 - "full repaint": the whole window is repainted after every step (the pessimistic figure:
   the design panel and the readout are redrawn whole each time);
@@ -46,6 +47,7 @@ def main() -> int:
     """Run the drag in each arrangement; print one block of plain lines per arrangement."""
     for arrangement in ARRANGEMENTS:
         bench(arrangement)
+        bench(arrangement, "pivot")
     bench_preview()
     print()
     for arrangement in ARRANGEMENTS:
@@ -80,11 +82,15 @@ def _close_window(window) -> None:  # type: ignore[no-untyped-def]
     window.close()
 
 
-def bench(arrangement: str) -> None:
-    """Drag the rod length through ``STEPS`` values with the plots arranged as given."""
+def bench(arrangement: str, dragged: str = "rod length") -> None:
+    """Drag the rod length (or, with ``dragged="pivot"``, the pivot position: 1 mm down the
+    body a step, every part moved) through ``STEPS`` values with the plots arranged as
+    given."""
     from core import analyse
 
     app, window, field = _open_window(arrangement)
+    if dragged == "pivot":
+        field = window.design_panel.pivot_control.row.field
 
     def drag(steps: int, full_repaint: bool) -> float:
         started = time.perf_counter()
@@ -112,7 +118,7 @@ def bench(arrangement: str) -> None:
     median_analyse_ms = statistics.median(analyse_s) * 1000.0
     full_ms = full_s / STEPS * 1000.0
 
-    print(f"arrangement: {arrangement} (window 1440x900)")
+    print(f"arrangement: {arrangement} (window 1440x900), dragging the {dragged}")
     print(f"steps: {STEPS} + {STEPS}")
     print(f"full updates computed: {updates}")
     print(f"updates per second, full repaint after every step: {STEPS / full_s:.1f}")

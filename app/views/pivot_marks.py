@@ -12,7 +12,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import pyqtgraph as pg
-from PySide6 import QtCore, QtGui
+from PySide6 import QtCore, QtGui, QtWidgets
 
 from app import theme
 from core import Result
@@ -93,7 +93,7 @@ class PivotMarks:
                                                brush=pg.mkBrush(theme.INK), name="Pivot")
         self._depths: dict[str, float | None] = {}
 
-    def attach(self, group: QtGui.QGraphicsItem) -> None:
+    def attach(self, group: QtWidgets.QGraphicsItem) -> None:
         """Make the marks children of ``group`` (the drawing that swings)."""
         for item in self.items.values():
             if item.parentItem() is not group:
