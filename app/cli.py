@@ -1,5 +1,5 @@
 """The ``penduline`` command: the window, and ``report``, ``solve``, ``sweep``, ``export``,
-``rating``.
+``rating``, ``beats``.
 
 Exit codes: 0 success, 2 bad input (one line on stderr naming the field), 1 a program failure
 (one line asking for a report; ``--debug`` anywhere on the line adds the traceback).
@@ -18,7 +18,7 @@ from typing import Any
 
 __all__ = ["main"]
 
-COMMANDS = ("report", "solve", "sweep", "export", "rating")
+COMMANDS = ("report", "solve", "sweep", "export", "rating", "beats")
 
 
 class _UsageError(Exception):
@@ -86,7 +86,21 @@ def _parsers() -> tuple[_Parser, _Parser]:
     rat.add_argument("--json", action="store_true", help="one JSON object, SI units")
     rat.add_argument("--log", metavar="CSV",
                      help="fit this CSV log instead of the design's (bad rows become warnings)")
-    for p in (rep, sol, swp, exp, rat):
+    bts = sub.add_parser("beats", help="rate a clock from a sound recording of its ticking",
+                         description="Find the ticks in a WAV recording, fit the beat and the "
+                                     "beat asymmetry (out of beat), and rate the clock against "
+                                     "a target period.")
+    bts.add_argument("recording", help="WAV file: mono or stereo, 8-96 kHz, 16/24/32-bit "
+                                       "integer or float")
+    target = bts.add_mutually_exclusive_group()
+    target.add_argument("--design", metavar="FILE",
+                        help="rate against this design's target period (none: no rate)")
+    target.add_argument("--target-period", type=float, metavar="S",
+                        help="rate against this full period, s (two beats)")
+    bts.add_argument("--channel", type=int, metavar="N",
+                     help="use channel N of a stereo file (0 or 1; default: the channels mixed)")
+    bts.add_argument("--json", action="store_true", help="one JSON object, SI units")
+    for p in (rep, sol, swp, exp, rat, bts):
         p.__class__ = _Parser
     return window, tools
 
@@ -236,5 +250,20 @@ def _rating(args: argparse.Namespace) -> int:
     return 0
 
 
+def _beats(args: argparse.Namespace) -> int:
+    from core import analyse_recording, beats_text, load_design
+    from core.analysis import finite_or_none
+
+    target = args.target_period
+    if args.design:
+        target = load_design(args.design).target.target_period_s
+    analysis = analyse_recording(args.recording, target, args.channel)
+    if args.json:
+        print(json.dumps(finite_or_none(analysis.report_dict()), allow_nan=False))
+    else:
+        print(beats_text(analysis).rstrip("\n"))
+    return 0
+
+
 _COMMAND_RUNNERS = {"report": _report, "solve": _solve, "sweep": _sweep, "export": _export,
-                    "rating": _rating}
+                    "rating": _rating, "beats": _beats}

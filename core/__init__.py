@@ -11,6 +11,8 @@ Design                             the immutable design value
 rating_log_from_dict / _to_dict       the rating log of DESIGN §8 (and its CSV form)
 fit_rating(log, reference) -> RatingFit   per-segment rates and shared coefficients (§9)
 rating_report(design, log) -> dict    the ``penduline rating --json`` object; rating_text
+analyse_recording(wav, target_period_s, channel) -> BeatAnalysis   beat, asymmetry, rate from
+                                      a sound recording (§9); .report_dict(), beats_text
 
 Further: :mod:`core.solve` (target solver and sweeps), :mod:`core.fileformat` (dict and text
 forms, editing by field path), :mod:`core.materials`, :mod:`core.gravity`,
@@ -19,6 +21,7 @@ forms, editing by field path), :mod:`core.materials`, :mod:`core.gravity`,
 """
 
 from .analysis import REPORT_KEYS, Result, analyse
+from .beats import BEATS_REPORT_KEYS, BeatAnalysis, analyse_recording, analyse_ticks, beats_text
 from .design import Design
 from .errors import DesignError
 from .fileformat import (
@@ -47,4 +50,6 @@ __all__ = ["Design", "DesignError", "Result", "REPORT_KEYS", "analyse", "load_de
            "save_design", "loads_design", "dumps_design", "design_from_dict", "design_to_dict",
            "with_value", "Conditions", "RatingFit", "fit_rating", "Adjustment", "DecayReading",
            "RatingLog", "Reading", "rating_log_from_csv", "rating_log_from_dict",
-           "rating_log_to_csv", "rating_log_to_dict", "rating_report", "rating_text"]
+           "rating_log_to_csv", "rating_log_to_dict", "rating_report", "rating_text",
+           "BeatAnalysis", "BEATS_REPORT_KEYS", "analyse_recording", "analyse_ticks",
+           "beats_text"]

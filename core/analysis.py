@@ -20,7 +20,7 @@ from .errors import DesignError, guarded
 from .exhibit import ExhibitFigures, exhibit_figures
 from .exhibit_geometry import HEADROOM_M, SweptGeometry, swept_geometry
 from .fileformat import design_from_dict, design_to_dict
-from .mass_properties import Body
+from .mass_properties import Body, rods_in_series
 from .model import PendulumState, pendulum_state
 from .motion import Motion, motion
 from .period import period_exact
@@ -227,6 +227,10 @@ def _warnings(design: Design, state: PendulumState) -> tuple[str, ...]:
                    "the smallest change of arc changes it greatly.")
     # A bob hung at the end of a cable is ordinary: no warning (the validator refuses a bob
     # whose body does not reach its rod).
+    for lower, upper in rods_in_series(design):
+        out.append(f"Rod '{lower}' starts on rod '{upper}' at a fixed top, which does not "
+                   f"follow rod '{upper}' as it grows with temperature: the temperature "
+                   f"figures leave that growth out. Hang it from the rod's end (hangs_from).")
     if design.suspension.kind == "spring" and amp > 10.0:
         out.append(f"A suspension spring at {amp:g}° semi-arc bends far beyond its linear range; "
                    "the constant-stiffness model is optimistic there.")
