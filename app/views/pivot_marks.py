@@ -3,18 +3,22 @@ the shortest-period pivot, and a legend entry for the pivot.
 
 Each mark is a small symbol of fixed screen size and its own shape (not told apart by colour
 alone), named in the preview's legend. The marks are children of the drawing's group, so they
-swing with the body. Their depths below the pivot are the core's figures (``Result``); nothing
-is computed here but a difference of two of them.
+swing with the body; the centre of oscillation and the shortest-period pivot sit beside the
+axis on short leaders, so that marks a few pixels apart on a small drawing stay apart. Their
+depths below the pivot are the core's figures (``Result``); nothing is computed here but a
+difference of two of them.
 """
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
 
 import pyqtgraph as pg
 from PySide6 import QtCore, QtGui, QtWidgets
 
 from app import theme
+from app.views.swing_drawing import cosmetic_pen
 from core import Result
 
 __all__ = ["PivotMarks", "Mark", "MARKS", "mark_depths_m"]
@@ -22,7 +26,9 @@ __all__ = ["PivotMarks", "Mark", "MARKS", "mark_depths_m"]
 
 @dataclass(frozen=True)
 class Mark:
-    """One mark: its key, legend text, symbol and colours."""
+    """One mark: its key, legend text, symbol (a pyqtgraph name or a path in the unit square),
+    size (px), colours and where it is drawn across the axis (px; 0 on the axis, else beside
+    it at the end of a short leader, so marks close together stay apart)."""
 
     key: str
     label: str
@@ -30,6 +36,7 @@ class Mark:
     size: float
     pen: str
     brush: str
+    beside_px: float = 0.0
 
 
 def _centre_of_mass_symbol() -> QtGui.QPainterPath:
@@ -56,13 +63,19 @@ def _pivot_symbol() -> QtGui.QPainterPath:
     return path
 
 
+def _unit_symbol(symbol: str | QtGui.QPainterPath) -> QtGui.QPainterPath:
+    """A symbol as a path in pyqtgraph's unit square."""
+    return symbol if isinstance(symbol, QtGui.QPainterPath) else pg.graphicsItems.\
+        ScatterPlotItem.Symbols[symbol]
+
+
 MARKS: tuple[Mark, ...] = (
-    Mark("centre_of_mass", "Centre of mass", _centre_of_mass_symbol(), 11.0,
+    Mark("centre_of_mass", "Centre of mass", _centre_of_mass_symbol(), 14.0,
          theme.INK, theme.INK),
-    Mark("centre_of_oscillation", "Centre of oscillation", "d", 10.0,
-         theme.DIFFERENCE, "#f4e8f2"),
-    Mark("shortest_period_pivot", "Shortest-period pivot", "t1", 11.0,
-         theme.MARKER, "#e3f1ea"),
+    Mark("centre_of_oscillation", "Centre of oscillation", "d", 12.0,
+         theme.DIFFERENCE, "#f4e8f2", beside_px=20.0),
+    Mark("shortest_period_pivot", "Shortest-period pivot", "t1", 12.0,
+         theme.MARKER, "#e3f1ea", beside_px=-20.0),
 )
 
 
@@ -77,17 +90,45 @@ def mark_depths_m(result: Result) -> dict[str, float | None]:
             "shortest_period_pivot": shortest}
 
 
+def _mark_item(mark: Mark) -> QtWidgets.QGraphicsPathItem:
+    """A mark as drawn: its symbol (``size`` px) ``beside_px`` across the axis, joined to the
+    axis by a short leader; fixed screen size and upright whatever the swing."""
+    unit = _unit_symbol(mark.symbol)
+    path = QtGui.QPainterPath()
+    if mark.beside_px:
+        edge = mark.beside_px - math.copysign(0.5 * mark.size, mark.beside_px)
+        path.moveTo(0.0, 0.0)
+        path.lineTo(edge, 0.0)
+    place = QtGui.QTransform()
+    place.translate(mark.beside_px, 0.0)
+    place.scale(mark.size, mark.size)
+    path.addPath(place.map(unit))
+    item = QtWidgets.QGraphicsPathItem(path)
+    item.setFlag(QtWidgets.QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations, True)
+    item.setPen(cosmetic_pen(mark.pen, 1.6))
+    item.setBrush(pg.mkBrush(mark.brush))
+    item.setZValue(12)
+    return item
+
+
 class PivotMarks:
-    """The marks' items: made once, moved for each result, carried by the drawing's group."""
+    """The marks' items: made once, moved for each result, carried by the drawing's group.
+
+    Attributes
+    ----------
+    items : the drawn marks by key (their position is the point marked, m).
+    samples : the legend's samples by key (never drawn in the view).
+    """
 
     def __init__(self) -> None:
-        self.items: dict[str, pg.ScatterPlotItem] = {}
+        self.items: dict[str, QtWidgets.QGraphicsPathItem] = {}
+        self.samples: dict[str, pg.ScatterPlotItem] = {}
         for mark in MARKS:
-            item = pg.ScatterPlotItem(pxMode=True, symbol=mark.symbol, size=mark.size,
-                                      pen=pg.mkPen(mark.pen, width=1.6),
-                                      brush=pg.mkBrush(mark.brush), name=mark.label)
-            item.setZValue(12)
-            self.items[mark.key] = item
+            self.items[mark.key] = _mark_item(mark)
+            self.samples[mark.key] = pg.ScatterPlotItem(
+                pxMode=True, symbol=mark.symbol, size=mark.size,
+                pen=pg.mkPen(mark.pen, width=1.6), brush=pg.mkBrush(mark.brush),
+                name=mark.label)
         self.pivot_sample = pg.ScatterPlotItem(pxMode=True, symbol=_pivot_symbol(), size=22.0,
                                                pen=pg.mkPen(theme.INK, width=1.4),
                                                brush=pg.mkBrush(theme.INK), name="Pivot")
@@ -99,6 +140,14 @@ class PivotMarks:
             if item.parentItem() is not group:
                 item.setParentItem(group)
 
+    def release(self, group: QtWidgets.QGraphicsItem) -> None:
+        """Take the marks off ``group`` (a drawing about to be dropped) so they outlive it."""
+        for item in self.items.values():
+            if item.parentItem() is group:
+                item.setParentItem(None)
+                if item.scene() is not None:
+                    item.scene().removeItem(item)
+
     def update(self, result: Result) -> None:
         """Place each mark on the hanging axis at its depth (hidden where it has none)."""
         depths = mark_depths_m(result)
@@ -108,7 +157,7 @@ class PivotMarks:
         for key, item in self.items.items():
             depth = depths[key]
             item.setVisible(depth is not None)
-            item.setData([0.0], [0.0 if depth is None else depth])
+            item.setPos(0.0, 0.0 if depth is None else depth)
 
     def depths_m(self) -> dict[str, float | None]:
         """Where each mark is drawn, m below the pivot, at rest (None: not shown)."""
@@ -117,6 +166,6 @@ class PivotMarks:
     def legend_entries(self) -> list[tuple[pg.ScatterPlotItem, str]]:
         """(sample item, text) for the legend: the pivot, then each mark shown."""
         entries = [(self.pivot_sample, "Pivot")]
-        entries += [(self.items[m.key], m.label) for m in MARKS
+        entries += [(self.samples[m.key], m.label) for m in MARKS
                     if self._depths.get(m.key) is not None]
         return entries

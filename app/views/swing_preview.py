@@ -227,6 +227,7 @@ class SwingPreview(ResultView, SwingAnimation):
             return drawing
         vb = self.getPlotItem().getViewBox()
         if drawing is not None:
+            self.marks.release(drawing.group)  # the old group's children go with it
             vb.removeItem(drawing.group)
         new = Drawing(outlines, ghost=ghost)
         new.group.setZValue(-5 if ghost else 0)

@@ -199,7 +199,7 @@ class TestPivotMarks:
         item = preview.marks.items["centre_of_mass"]
         depth = window.result.centre_of_mass_m
         shown = item.mapToItem(preview.getPlotItem().getViewBox().childGroup,
-                               QPointF(0.0, depth))
+                               QPointF(0.0, 0.0))  # the point marked
         angle = preview.shown_angle_rad()
         assert abs(angle) > 0.0
         # Plain geometry: a point at depth d on an axis turned by θ sits d·sin θ across.
