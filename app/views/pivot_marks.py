@@ -144,7 +144,7 @@ class PivotMarks:
         """Take the marks off ``group`` (a drawing about to be dropped) so they outlive it."""
         for item in self.items.values():
             if item.parentItem() is group:
-                item.setParentItem(None)
+                item.setParentItem(None)  # type: ignore[arg-type]  # None: no parent
                 if item.scene() is not None:
                     item.scene().removeItem(item)
 
