@@ -80,6 +80,11 @@ def _parsers() -> tuple[_Parser, _Parser]:
     exp = sub.add_parser("export", help="write plots, data and a PDF report, no display needed")
     exp.add_argument("file")
     exp.add_argument("--out", required=True, metavar="DIR")
+    exp.add_argument("--sheet", action="store_true",
+                     help="also write the one-page client sheet (client_sheet.pdf) and one "
+                          "full swing at true speed (swing.gif)")
+    exp.add_argument("--units", choices=["metric", "inch-pound"], default="metric",
+                     help="units of the client sheet (the design file stays SI)")
     rat = sub.add_parser("rating", help="fit the rating log: measured rate, coefficients, "
                          "correction")
     rat.add_argument("file", help="design file (its rating log, unless --log is given)")
@@ -223,6 +228,11 @@ def _export(args: argparse.Namespace) -> int:
 
     for path in export_all(args.file, args.out):
         print(path)
+    if args.sheet:
+        from app.report.client_sheet import export_sheet_files
+
+        for path in export_sheet_files(args.file, args.out, args.units):
+            print(path)
     return 0
 
 

@@ -13,6 +13,7 @@ from typing import Any
 import numpy as np
 from numpy.typing import NDArray
 
+from .blades import SPRING_STRESS_CAUTION, BladeStresses, blade_clamp_stresses
 from .cable import CableFigures, cable_figures
 from .constants import SECONDS_PER_DAY
 from .design import Design, beats_per_hour
@@ -117,6 +118,9 @@ class Result:
     geometry: SweptGeometry | None = None
     cable: CableFigures | None = None
     pivot: PivotFigures | None = None
+    # the suspension (issue 14)
+    suspension_stiffness_n_m_per_rad: float = 0.0
+    blade_stresses: BladeStresses | None = None
 
     def report_dict(self) -> dict[str, Any]:
         """The JSON form of ``penduline report --json``: DESIGN §4 keys first, then the rest."""
@@ -291,6 +295,8 @@ def _cautions(design: Design, exhibit: ExhibitFigures, geometry: SweptGeometry,
         out.append(LOAD_CAUTION)
     if design.suspension.kind == "spring":
         out.append(SPRING_CAUTION)
+    if design.suspension.blades is not None:
+        out.append(SPRING_STRESS_CAUTION)
     if exhibit.static_load_n > HEAVY_LOAD_N:
         out.append(f"Heavy pendulum ({mass_kg:.4g} kg): keep people out from under it and out "
                    "of its swept area while it is hung, tested or stopped and while it runs; "
@@ -387,4 +393,17 @@ def _analyse(design: Design, trim_height_m: float | None, ranges: BudgetRanges) 
         geometry=geometry,
         cable=cable,
         pivot=pivot_figures(state),
+        suspension_stiffness_n_m_per_rad=state.stiffness_n_m_per_rad,
+        blade_stresses=_blade_stresses(design, state),
     )
+
+
+def _blade_stresses(design: Design, state: PendulumState) -> BladeStresses | None:
+    """Clamp stresses of a spring given by its blades, under the pendulum's static weight at
+    the working semi-arc (ideal elastic figures, Pa); None otherwise."""
+    b = design.suspension.blades
+    if b is None:
+        return None
+    return blade_clamp_stresses(b.count, design.material(b.material).youngs_modulus_pa,
+                                b.width_m, b.thickness_m, b.free_length_m,
+                                state.mass.mass_kg * state.g_m_s2, design.swing.amplitude_deg)

@@ -10,11 +10,12 @@ computed figures. No Qt here.
 from __future__ import annotations
 
 import copy
+import dataclasses
 import re
 from typing import Any
 
 from core import Design, DesignError, design_from_dict, design_to_dict
-from core.design import beats_per_hour
+from core.design import ExhibitSite, beats_per_hour
 
 __all__ = ["PART_KINDS", "set_value", "add_part", "remove_part", "duplicate_part",
            "rename_part", "set_bob_shape", "set_bob_mount", "set_suspension_kind",
@@ -32,6 +33,8 @@ def set_value(design: Design, path: str, value: Any) -> Design:
     """``design`` with the field at ``path`` (e.g. ``parts[1].mass_kg``) set to ``value``."""
     from core import with_value
 
+    if path.startswith("exhibit.") and design.exhibit is None:  # the optional section
+        design = dataclasses.replace(design, exhibit=ExhibitSite())
     return with_value(design, path, value)
 
 

@@ -29,6 +29,7 @@ from app.form.field_rows import ChoiceRow, NumberRow, Row, TextRow
 from app.form.labels import FIELD_LABELS, field_label
 from app.form.part_editor import PartsSection
 from app.form.pivot_control import PivotControl
+from app.form.suspension_fields import SuspensionSection
 from app.form.units import UnitSystem
 from core import Design, DesignError, Result, design_to_dict
 from core.fileformat import get_value
@@ -36,13 +37,13 @@ from core.fileformat import get_value
 __all__ = ["DesignPanel", "FIELD_LABELS", "field_label"]
 
 
-_SUSPENSIONS = [("knife_edge", "Knife edge"), ("spring", "Suspension spring")]
 _TARGETS = [("period", "Period"), ("beats_per_hour", "Beats per hour"), ("none", "No target")]
 _UNSET_TEXT = {"quality_factor": "no damping", "pitch_m": "no nut"}
-_OPTIONAL_DEFAULTS = {"quality_factor": 10000.0, "pitch_m": 0.001, "g_m_s2": 9.80665}
+_OPTIONAL_DEFAULTS = {"quality_factor": 10000.0, "pitch_m": 0.001, "g_m_s2": 9.80665,
+                      "hole_diameter_m": 0.008}
 
 
-class DesignPanel(PartsSection, QScrollArea):
+class DesignPanel(PartsSection, SuspensionSection, QScrollArea):
     """Left panel: every design field, grouped, with the parts list and the part editor.
 
     Signals
@@ -73,9 +74,12 @@ class DesignPanel(PartsSection, QScrollArea):
         self._build_design_group()
         self._build_site_group()
         self._build_suspension_group()
+        self.pivot_control = PivotControl(self.document, self._system, self)
+        self.pivot_control.add_to(self._suspension_form)
         self._build_parts_group()
         self._build_swing_group()
         self._build_target_group()
+        self._build_exhibit_group()
         self._layout.addStretch(1)
         self.setWidget(body)
         document.designChanged.connect(self._on_design_changed)
@@ -126,6 +130,7 @@ class DesignPanel(PartsSection, QScrollArea):
     def _build_design_group(self) -> None:
         form = self._group("Design")
         self._text(form, "name")
+        self._choice(form, "purpose", [("clock", "Clock"), ("exhibit", "Exhibit")])
         self._number(form, "reference_temperature_c")
 
     def _build_site_group(self) -> None:
@@ -140,13 +145,6 @@ class DesignPanel(PartsSection, QScrollArea):
         hint.setWordWrap(True)
         form.addRow(hint)
 
-    def _build_suspension_group(self) -> None:
-        form = self._group("Suspension")
-        self._choice(form, "suspension.kind", _SUSPENSIONS)
-        self._number(form, "suspension.stiffness_n_m_per_rad")
-        self.pivot_control = PivotControl(self.document, self._system, self)
-        self.pivot_control.add_to(form)
-
     def _build_swing_group(self) -> None:
         form = self._group("Swing")
         self._number(form, "swing.amplitude_deg")
@@ -158,6 +156,11 @@ class DesignPanel(PartsSection, QScrollArea):
         self._period_row = self._number(form, "target.period_s")
         self._bph_row = self._number(form, "target.beats_per_hour")
         self._number(form, "rating_nut.pitch_m", optional="Fitted")
+
+    def _build_exhibit_group(self) -> None:
+        form = self._group("Exhibit site")
+        self._number(form, "exhibit.pivot_above_floor_m", optional="Floor")
+        self._number(form, "exhibit.barrier_radius_m", optional="Barrier")
 
     # ================================================================== model → widgets
     def _on_design_changed(self, design: Design) -> None:
@@ -187,8 +190,7 @@ class DesignPanel(PartsSection, QScrollArea):
         self._form_label(self._period_row).setVisible(target_kind == "period")
         self._bph_row.setVisible(target_kind == "beats_per_hour")
         self._form_label(self._bph_row).setVisible(target_kind == "beats_per_hour")
-        stiffness = self._rows["suspension.stiffness_n_m_per_rad"]
-        stiffness.setEnabled(design.suspension.kind == "spring")
+        self._write_suspension(design)
         self.parts_problem.setVisible(False)
 
     @staticmethod
@@ -215,6 +217,7 @@ class DesignPanel(PartsSection, QScrollArea):
         (a part's mass from its material, gravity from latitude), and ticking one starts
         from it."""
         self._result = result
+        self._show_spring_figures(result)
         for path, row in self.all_rows().items():
             if isinstance(row, NumberRow) and row.check is not None \
                     and not row.check.isChecked():
@@ -297,6 +300,8 @@ class DesignPanel(PartsSection, QScrollArea):
     def _on_chosen(self, path: str, key: str) -> None:
         design = self.document.design
         text = f"Change {field_label(path).lower()}"
+        if self._chosen_here(path, key):
+            return
         if path == "suspension.kind":
             make: Callable[[], Design] = partial(design_edits.set_suspension_kind, design, key)
         elif path == "target.kind":

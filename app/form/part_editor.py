@@ -22,8 +22,8 @@ from PySide6.QtWidgets import (
 
 from app.form import design_edits
 from app.form.field_rows import Row
+from app.form.material_edits import material_choices
 from core import Design, DesignError, Result
-from core.materials import MATERIALS
 
 if TYPE_CHECKING:
     from app.document.document import Document
@@ -61,6 +61,10 @@ class PartsSection:
         def _write_values(self, design: Design) -> None: ...
 
         def set_result(self, result: Result) -> None: ...
+
+        def _build_hang_row(self, design: Design, part: Any, at: str) -> bool: ...
+
+        def _build_bob_extras(self, part: Any, at: str) -> None: ...
 
     def _build_parts_group(self) -> None:
         box = QGroupBox("Parts")
@@ -112,9 +116,10 @@ class PartsSection:
         if part.kind == "bob":
             self._choice(form, f"{at}.shape", _SHAPES, reg)
         if part.kind != "weight":
-            self._choice(form, f"{at}.material", _material_choices(), reg)
+            self._choice(form, f"{at}.material", material_choices(design), reg)
         if part.kind == "rod":
-            for key in ("top_m", "length_m", "diameter_m"):
+            top_given = self._build_hang_row(design, part, at)
+            for key in ("top_m", "length_m", "diameter_m")[0 if top_given else 1:]:
                 self._number(form, f"{at}.{key}", registry=reg)
         elif part.kind == "sleeve":
             self._choice(form, f"{at}.on", _names(design_edits.rod_names(design)), reg)
@@ -144,14 +149,16 @@ class PartsSection:
             self._number(form, f"{at}.thickness_m", registry=reg)
         elif part.shape == "cylinder":
             self._number(form, f"{at}.height_m", registry=reg)
+        self._build_bob_extras(part, at)
     def _signature(self, design: Design) -> tuple[Any, ...]:
         """What decides which rows the part editor has (rebuilt only when it changes)."""
         if not 0 <= self._selected < len(design.parts):
             return (self._selected,)
         p = design.parts[self._selected]
         return (self._selected, p.kind, getattr(p, "shape", None),
-                getattr(getattr(p, "mount", None), "kind", None),
-                tuple((q.kind, q.name) for q in design.parts))
+                getattr(getattr(p, "mount", None), "kind", None), getattr(p, "hangs_from", None),
+                tuple((q.kind, q.name) for q in design.parts),
+                tuple(m.key for m in design.materials))
     def _refresh_parts_list(self, design: Design) -> None:
         labels = [design_edits.part_label(p) for p in design.parts]
         current = [self.parts_list.item(i).text() for i in range(self.parts_list.count())]
@@ -220,10 +227,6 @@ class PartsSection:
         self._selected = max(0, self._selected - 1)
         self.document.commit(design, "Remove part", "parts")
         return True
-
-
-def _material_choices() -> list[tuple[str, str]]:
-    return [(key, m.label) for key, m in MATERIALS.items()]
 
 
 def _names(names: list[str]) -> list[tuple[str, str]]:

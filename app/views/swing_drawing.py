@@ -24,7 +24,7 @@ from PySide6 import QtCore, QtGui, QtWidgets
 from app import theme
 from core.mass_properties import Body
 
-__all__ = ["Outline", "outlines_from_bodies", "deepest_point_m", "Drawing", "Envelope",
+__all__ = ["Outline", "outlines_from_bodies", "Drawing", "Envelope",
            "pivot_item", "cosmetic_pen"]
 
 # Colours: the workbench theme's paper, ink, ghost and marker; the parts' own colours here.
@@ -82,38 +82,6 @@ def outlines_from_bodies(bodies: tuple[Body, ...]) -> tuple[Outline, ...]:
     return tuple(Outline(b.name, b.kind, b.shape, float(b.top_m), float(b.bottom_m),
                          float(b.width_m), float(b.inner_width_m)) for b in bodies)
 
-
-
-# ---------------------------------------------------------------------------------------------
-# The deepest point of the swing, from the drawn outlines (plain geometry).
-# TO BE REPLACED: the core is gaining ``Result.exhibit``/``Result`` figure ``lowest_point_m``
-# for the whole body over the swing; once it has, the preview reads that figure and the two
-# functions below go. They are the only geometry of the swing computed in ``app``.
-def _deepest_of_rectangle(o: Outline, amplitude_rad: float) -> float:
-    """Deepest point (m below the pivot) reached by a rectangle's lower corners while swinging
-    through ±``amplitude_rad``: a corner at radius R and angle φ from the vertical reaches
-    R·cos(φ − min(φ, θ₀))."""
-    deepest = -math.inf
-    for z in (o.top_m, o.bottom_m):
-        radius = math.hypot(0.5 * o.width_m, z)
-        phi = math.atan2(0.5 * o.width_m, z)
-        deepest = max(deepest, radius * math.cos(phi - min(phi, amplitude_rad)))
-    return deepest
-
-
-def deepest_point_m(outlines: tuple[Outline, ...], amplitude_rad: float) -> float:
-    """Deepest point below the pivot (m) that any drawn outline reaches over the swing."""
-    deepest = 0.0
-    for o in outlines:
-        if o.kind == "weight":
-            deepest = max(deepest, o.centre_m if o.centre_m >= 0 else
-                          o.centre_m * math.cos(amplitude_rad))
-        elif o.is_round:
-            c, r = o.centre_m, 0.5 * o.width_m
-            deepest = max(deepest, (c if c >= 0 else c * math.cos(amplitude_rad)) + r)
-        else:
-            deepest = max(deepest, _deepest_of_rectangle(o, amplitude_rad))
-    return deepest
 
 
 def cosmetic_pen(colour: Any, width: float = 1.5,

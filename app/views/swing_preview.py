@@ -33,14 +33,14 @@ from app.views.swing_drawing import (
     Envelope,
     Outline,
     cosmetic_pen,
-    deepest_point_m,
     outlines_from_bodies,
 )
+from app.views.swing_site import SiteMarks
 from core import Result
 from core.analysis import LOAD_CAUTION, SPRING_CAUTION
 
 __all__ = ["SwingPreview", "SwingPreviewControls", "Outline", "outlines_from_bodies",
-           "deepest_point_m", "SPEEDS", "TimeSource", "WallClock"]
+           "SPEEDS", "TimeSource", "WallClock"]
 
 CAUTION_MARGIN_PX = 24  # the caution wraps this much narrower than the widget
 CAUTION_MIN_WIDTH_PX = 160
@@ -86,6 +86,7 @@ class SwingPreview(ResultView, SwingAnimation):
         self.marks = PivotMarks()
         self._setup_overlay()
         self._setup_clearance_line()
+        self._site = SiteMarks(self.getPlotItem().getViewBox())
 
     # ------------------------------------------------------------------ set-up
     def _setup_axes(self) -> None:
@@ -141,8 +142,10 @@ class SwingPreview(ResultView, SwingAnimation):
         self._result_arrived(result, baseline)
         outlines = outlines_from_bodies(result.bodies)
         self._clock = MotionClock(result)
-        self._deepest_m = max(deepest_point_m(outlines, self._clock.amplitude_rad),
-                              float(result.exhibit.lowest_point_m))
+        geometry = result.geometry  # the core's deepest point and reach of the whole body
+        self._deepest_m = float(geometry.lowest_point_m if geometry is not None
+                                else result.exhibit.lowest_point_m)
+        self._site.update(result)
         self._drawing = self._placed(self._drawing, outlines, ghost=False)
         self.marks.attach(self._drawing.group)
         self.marks.update(result)
@@ -256,11 +259,11 @@ class SwingPreview(ResultView, SwingAnimation):
         outlines = list(self._drawing.outlines.values())
         theta0 = min(self._clock.amplitude_rad, math.pi / 2)
         half_width = max([0.5 * o.width_m for o in outlines] + [0.01])
-        reach = self._deepest_m * math.sin(theta0) + half_width
+        reach = max(self._deepest_m * math.sin(theta0) + half_width, self._site.reach_m())
         top = min([o.top_m for o in outlines] + [0.0])
         if self._clock.amplitude_rad > math.pi / 2:
             top = min(top, -self._deepest_m * math.sin(self._clock.amplitude_rad - math.pi / 2))
-        bottom = max(self._deepest_m, self.clearance_line_m() or 0.0)
+        bottom = max(self._deepest_m, self.clearance_line_m() or 0.0, self._site.floor_m())
         span = max(bottom - top, 2 * reach, 0.05)
         shown = (-reach - 0.04 * span, reach + 0.04 * span, top - 0.06 * span,
                  bottom + 0.05 * span)

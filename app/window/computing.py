@@ -15,6 +15,7 @@ from dataclasses import asdict
 from app.document.settings import app_settings, store_budget_ranges
 from app.form.labels import field_label
 from app.form.units import UnitSystem
+from app.window.exhibit_focus import focus_for_purpose
 from app.window.parts import WindowParts
 from core import Design, DesignError, Result, analyse
 from core.tuning import BudgetRanges, budget_ranges
@@ -58,6 +59,7 @@ class WindowComputing(WindowParts):
 
     def _show_result(self, result: Result) -> None:
         self.result = result
+        focus_for_purpose(self, result)
         self._stale_plots = set(range(len(self.plots)))
         self._refresh_plots()
         self.readout.show_result(result, self.baseline)

@@ -1,4 +1,4 @@
-"""The window's menus and their actions (File, Edit, View, Help)."""
+"""The window's menus and their actions (File, Edit, View, Tools, Help)."""
 
 from __future__ import annotations
 
@@ -10,11 +10,14 @@ from PySide6.QtGui import QAction, QActionGroup, QKeySequence
 from PySide6.QtWidgets import QMenu
 
 from app.document.settings import recent_files
+from app.form.materials_dialog import MaterialsDialog
 from app.form.units import UnitSystem
 from app.views.motion import MotionPlot
 from app.views.rating_view import RatingView
 from app.window.files import example_files, example_title
 from app.window.parts import WindowParts
+from app.window.sheet_export import ask_export_sheet
+from app.window.solve_dialog import SolveDialog
 
 __all__ = ["WindowMenus"]
 
@@ -26,6 +29,9 @@ class WindowMenus(WindowParts):
         self._build_file_menu()
         self._build_edit_menu()
         self._build_view_menu()
+        tools = self.menuBar().addMenu("&Tools")
+        self._action(tools, "&Solve…", self.open_solve_dialog, "Ctrl+Shift+L")
+        self._action(tools, "Your &materials…", self.open_materials_dialog)
         help_menu = self.menuBar().addMenu("&Help")
         help_menu.addAction("About Penduline", self._about)
 
@@ -54,6 +60,7 @@ class WindowMenus(WindowParts):
         self._action(menu, "&Export plots…", self.ask_export_plots, "Ctrl+E")
         self._action(menu, "Export plots, data and &report…", self.ask_export_all,
                      "Ctrl+Shift+E")
+        self._action(menu, "Export client &sheet…", lambda: ask_export_sheet(self))
         menu.addSeparator()
         self._action(menu, "&Quit", self.close, QKeySequence.StandardKey.Quit)
 
@@ -106,6 +113,22 @@ class WindowMenus(WindowParts):
         menu.addSeparator()
         self._action(menu, "&Pin current design as baseline", self.pin_baseline, "Ctrl+B")
         self._action(menu, "&Clear baseline", self.clear_baseline)
+
+    def open_solve_dialog(self) -> SolveDialog:
+        """Tools ▸ Solve…: the solve dialog over the window (window-modal, not blocking)."""
+        dialog = SolveDialog(self.document, self._system, self)
+        dialog.finished.connect(dialog.deleteLater)
+        self.solve_dialog = dialog
+        dialog.open()
+        return dialog
+
+    def open_materials_dialog(self) -> MaterialsDialog:
+        """Tools ▸ Your materials…: add, edit and remove the design's own materials."""
+        dialog = MaterialsDialog(self.document, self)
+        dialog.finished.connect(dialog.deleteLater)
+        self.materials_dialog = dialog
+        dialog.open()
+        return dialog
 
     def _rating_view(self) -> RatingView:
         return next(p for p in self.plots if isinstance(p, RatingView))

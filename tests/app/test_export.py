@@ -22,7 +22,7 @@ from core import DesignError
 ROOT = Path(__file__).resolve().parents[2]
 ATRIUM = ROOT / "resources" / "examples" / "atrium_pendulum.pendulum.json"
 PNG_SIGNATURE = b"\x89PNG\r\n\x1a\n"
-SLUGS = ("motion", "phase", "period_curve", "swing_preview")
+SLUGS = ("motion", "phase", "period_curve", "swing_preview", "plan_view")
 EXPECTED = ({f"{s}.png" for s in SLUGS} | {f"{s}.svg" for s in SLUGS}
             | {"motion.csv", "period_curve.csv", "parts.csv", "report.pdf"})
 
@@ -121,5 +121,6 @@ def test_export_needs_no_display(tmp_path):
     assert {p.name for p in out.iterdir()} == EXPECTED
     assert run.stdout.strip().splitlines() == [str(out / n) for n in (
         "motion.png", "motion.svg", "phase.png", "phase.svg", "period_curve.png",
-        "period_curve.svg", "swing_preview.png", "swing_preview.svg", "motion.csv",
+        "period_curve.svg", "swing_preview.png", "swing_preview.svg", "plan_view.png",
+        "plan_view.svg", "motion.csv",
         "period_curve.csv", "parts.csv", "report.pdf")]

@@ -19,8 +19,6 @@ from app.views.swing_preview import (
     SPEEDS,
     SwingPreview,
     SwingPreviewControls,
-    deepest_point_m,
-    outlines_from_bodies,
 )
 from core import analyse, design_from_dict, load_design, with_value
 from core.analysis import LOAD_CAUTION
@@ -119,17 +117,14 @@ class TestDrawnGeometry:
         assert bottom - top == pytest.approx(height, abs=1e-12)
         assert 0.5 * (top + bottom) == pytest.approx(0.9, abs=1e-12)
 
-    def test_deepest_point_of_a_wide_cylinder_is_a_corner(self):
+    def test_deepest_point_of_a_wide_cylinder_is_a_corner(self, preview):
         # Cylinder 0.2 m wide centred at 0.95 m, 0.15 m high: bottom at 1.025 m, below the
-        # rod's end. Its corner at radius √(1.025² + 0.1²) is reached at 5.57° < 20°, deeper
-        # than the middle of its bottom; within ±3° it is not reached.
+        # rod's end. Its corner at radius √(1.025² + 0.1²) is reached at 5.57° < 20° (plain
+        # geometry); the preview shows the core's figure.
         result = analyse(design_from_dict(_bob_design("cylinder", 0.95, height_m=0.15)))
-        outlines = outlines_from_bodies(result.bodies)
-        deepest = deepest_point_m(outlines, math.radians(20.0))
-        assert deepest == pytest.approx(math.hypot(1.025, 0.1), rel=1e-12)
-        phi = math.atan2(0.1, 1.025)
-        assert deepest_point_m(outlines, math.radians(3.0)) == pytest.approx(
-            math.hypot(1.025, 0.1) * math.cos(phi - math.radians(3.0)), rel=1e-12)
+        preview.show_result(result)
+        assert preview.deepest_point_m() == pytest.approx(math.hypot(1.025, 0.1), rel=1e-12)
+        assert preview.deepest_point_m() == result.geometry.lowest_point_m
 
     def test_atrium_deepest_point_is_the_exhibit_figure(self, preview, atrium):
         preview.show_result(atrium)

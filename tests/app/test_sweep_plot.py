@@ -147,9 +147,10 @@ class TestWhenSwept:
         assert isinstance(sweep, SweepPlot)
         assert sweep.sweep_count == 0  # computed designs, sweep never on view
         window.grid_action.setChecked(True)  # all plots together: the sweep keeps its tab
-        assert 4 not in window.plot_area.shown_indices()
+        index = window.plots.index(sweep)
+        assert index not in window.plot_area.shown_indices()
         assert sweep.sweep_count == 0
-        window.plot_area.show_plot(4)
-        assert window.plot_area.shown_indices() == [4]
+        window.plot_area.show_plot(index)
+        assert window.plot_area.shown_indices() == [index]
         assert sweep.sweep_count == 1
         np.testing.assert_array_equal(sweep.curve.getData()[1], sweep.table.period_s)

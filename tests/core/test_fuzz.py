@@ -246,7 +246,7 @@ def check_result(r: Result) -> None:
         value = getattr(r, f.name)
         if f.name in ("design", "warnings", "cautions", "sensitivities", "budget", "exhibit",
                       "bodies", "motion", "phase", "period_curve", "purpose", "geometry",
-                      "cable", "pivot"):
+                      "cable", "pivot", "blade_stresses"):
             continue
         if value is None:
             assert f.name in ALLOWED_NONE, f.name
@@ -257,6 +257,10 @@ def check_result(r: Result) -> None:
             continue
         assert _finite(value), (f.name, value)
     assert (r.rate_s_per_day is None) == (not has_target)
+    assert (r.blade_stresses is None) == (d.suspension.blades is None)
+    if r.blade_stresses is not None:
+        assert all(math.isfinite(getattr(r.blade_stresses, f.name))
+                   for f in fields(r.blade_stresses))
     _check_planning(r, has_bob)
     assert (r.peak_speed_m_s is None) == (not has_bob)
     s = r.sensitivities
