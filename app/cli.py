@@ -71,6 +71,9 @@ def _parsers() -> tuple[_Parser, _Parser]:
                      help="make the temperature coefficient zero (alone with one field; "
                           "with the period when two fields are varied)")
     sol.add_argument("--write", metavar="OUT", help="write the design with the solved values")
+    sol.add_argument("--force", action="store_true",
+                     help="with --write: overwrite OUT even if another program changed it "
+                          "since it was read")
     swp = sub.add_parser("sweep", help="period and rate against one field, as CSV")
     swp.add_argument("file")
     swp.add_argument("--vary", required=True, metavar="FIELD", help="field path, or 'pivot'")
@@ -180,10 +183,14 @@ def _report(args: argparse.Namespace) -> int:
 
 
 def _solve(args: argparse.Namespace) -> int:
-    from core import load_design
-    from core.fileformat import read_design_dict, set_in_dict, write_text_atomic
+    from core import DesignError, load_design
+    from core.atomic_write import FileChangedError, file_stamp, write_text_atomic
+    from core.fileformat import read_design_dict, set_in_dict
     from core.solve import Targets, solve
 
+    # The output as it was before the solve: overwriting it after another program changed
+    # it meanwhile needs --force (stamped before reading, so a change during the read counts).
+    before = file_stamp(args.write) if args.write else None
     design = load_design(args.file)
     targets = Targets(period_s=args.target_period, beats_per_hour=args.target_bph,
                       null_temperature=args.null == "temperature")
@@ -207,7 +214,13 @@ def _solve(args: argparse.Namespace) -> int:
         raw = read_design_dict(args.file)
         for path, value in zip(sol.fields, sol.values, strict=True):
             raw = set_in_dict(raw, path, value)
-        write_text_atomic(args.write, json.dumps(raw, indent=2, ensure_ascii=False) + "\n")
+        try:
+            write_text_atomic(args.write, json.dumps(raw, indent=2, ensure_ascii=False) + "\n",
+                              expect=before, force=args.force)
+        except FileChangedError:
+            raise DesignError("file", f"{args.write} was changed by another program since it "
+                                      "was read; nothing was written (give --force to "
+                                      "overwrite it)") from None
         print(f"wrote {args.write}")
     return 0
 

@@ -4,15 +4,20 @@ Opens the example offscreen at 1440×900 in each plot arrangement: "tabs" (the d
 plot on view) and "grid" (View ▸ Show plots together: motion, phase plane, period curve and
 swing preview on view at once). In each it drags the rod length through successive values
 along the path a spin box uses (``stepBy`` → live preview → coalesced analysis → ``setData``
-on the plots on view and the readout), and then drags the pivot along the body the same way
-(each step moves every part), twice each:
+on the plots on view and the readout), with the analysis on the interface thread and on the
+worker thread alternately (inline, worker, inline, worker: compare within one run, the machine
+may be busy); then drags the pivot along the body the same way (each step moves every part),
+once inline and once on the worker. "Edits per second" counts the steps the drag made;
+"results shown per second" the analyses that reached the screen (on the worker, edits made
+while an analysis runs are coalesced into the next one). Each drag runs twice:
 
 - "full repaint": the whole window is repainted after every step (the pessimistic figure:
   the design panel and the readout are redrawn whole each time);
 - "Qt repaint": Qt repaints what changed, as it does on a real drag.
 
-In the same run it times ``core.analyse`` alone on the same designs, and the swing preview's
-``show_result`` for a geometry-only change.
+In the same run it times ``core.analyse`` alone on the same designs, the longest the
+interface thread is held by one drag step on a damped spring design (inline against worker),
+and the swing preview's ``show_result`` for a geometry-only change.
 
 Then, in each arrangement with the swing preview on view, the animation at true speed (1×):
 for ``ANIMATION_S`` seconds of wall time each it counts the animation frames actually painted
@@ -41,13 +46,16 @@ ARRANGEMENTS = ("tabs", "grid")
 ANIMATION_S = 3.0  # wall time of each animation measurement, s
 DRAG_RUN = 40  # steps in one direction before the drag turns back
 EXAMPLE = ROOT / "resources" / "examples" / "workshop_regulator.pendulum.json"
+SLOW_EXAMPLE = ROOT / "resources" / "examples" / "hall_clock.pendulum.json"
 
 
 def main() -> int:
     """Run the drag in each arrangement; print one block of plain lines per arrangement."""
     for arrangement in ARRANGEMENTS:
         bench(arrangement)
-        bench(arrangement, "pivot")
+        bench_mode(arrangement, True, "pivot")
+        bench_mode(arrangement, False, "pivot")
+    bench_slow()
     bench_preview()
     print()
     for arrangement in ARRANGEMENTS:
@@ -82,13 +90,29 @@ def _close_window(window) -> None:  # type: ignore[no-untyped-def]
     window.close()
 
 
-def bench(arrangement: str, dragged: str = "rod length") -> None:
-    """Drag the rod length (or, with ``dragged="pivot"``, the pivot position: 1 mm down the
-    body a step, every part moved) through ``STEPS`` values with the plots arranged as
-    given."""
+def _wait_idle(app, window) -> None:  # type: ignore[no-untyped-def]
+    """Process events until the newest design's analysis is on view."""
+    while not window.computing_idle():
+        app.processEvents()
+        time.sleep(0.001)
+    app.processEvents()
+
+
+def bench(arrangement: str) -> None:
+    """Drag the rod length through ``STEPS`` values with the plots arranged as given, with
+    the analysis on the interface thread and on the worker, alternately, in the same run."""
+    for inline in (True, False, True, False):
+        bench_mode(arrangement, inline)
+
+
+def bench_mode(arrangement: str, inline: bool, dragged: str = "rod length") -> None:
+    """One drag of ``STEPS`` + ``STEPS`` values; ``inline`` analyses on the interface thread.
+    ``dragged="pivot"`` drags the pivot position (1 mm down the body a step, every part
+    moved) instead of the rod length."""
     from core import analyse
 
     app, window, field = _open_window(arrangement)
+    window.analyse_inline = inline
     if dragged == "pivot":
         field = window.design_panel.pivot_control.row.field
 
@@ -104,10 +128,15 @@ def bench(arrangement: str, dragged: str = "rod length") -> None:
 
     designs: list = []
     drag(10, True)  # warm up: imports, caches, first paints
+    _wait_idle(app, window)
     start_count = window.compute_count
     full_s = drag(STEPS, True)
+    shown_full = window.compute_count - start_count
     qt_s = drag(STEPS, False)
+    shown_qt = window.compute_count - start_count - shown_full
     field.finish_steps()
+    _wait_idle(app, window)
+    assert window.result.design == window.document.design  # the last edit is on view
     updates = window.compute_count - start_count
 
     analyse_s = []
@@ -118,11 +147,14 @@ def bench(arrangement: str, dragged: str = "rod length") -> None:
     median_analyse_ms = statistics.median(analyse_s) * 1000.0
     full_ms = full_s / STEPS * 1000.0
 
-    print(f"arrangement: {arrangement} (window 1440x900), dragging the {dragged}")
+    print(f"arrangement: {arrangement} (window 1440x900), dragging the {dragged}, analysis "
+          f"{'on the interface thread' if inline else 'on the worker'}")
     print(f"steps: {STEPS} + {STEPS}")
-    print(f"full updates computed: {updates}")
-    print(f"updates per second, full repaint after every step: {STEPS / full_s:.1f}")
-    print(f"updates per second, Qt repaint of what changed: {STEPS / qt_s:.1f}")
+    print(f"full updates shown: {updates}")
+    print(f"edits per second, full repaint after every step: {STEPS / full_s:.1f}")
+    print(f"edits per second, Qt repaint of what changed: {STEPS / qt_s:.1f}")
+    print(f"results shown per second, full repaint: {shown_full / full_s:.1f}")
+    print(f"results shown per second, Qt repaint: {shown_qt / qt_s:.1f}")
     print(f"mean time per update (full repaint): {full_ms:.2f} ms")
     print(f"median core.analyse: {median_analyse_ms:.2f} ms")
     print(f"update / analyse ratio (full repaint): {full_ms / median_analyse_ms:.1f}")
@@ -183,7 +215,7 @@ def bench_animation(arrangement: str) -> None:
     def drag() -> tuple[float, float]:
         """(frames/s, edits/s) over ANIMATION_S of stepping the rod length, processing the
         events after each step."""
-        frames0, computes0 = counter.frames, window.compute_count
+        frames0 = counter.frames
         steps = 0
         started = time.perf_counter()
         while time.perf_counter() - started < ANIMATION_S:
@@ -192,8 +224,8 @@ def bench_animation(arrangement: str) -> None:
             steps += 1
         wall = time.perf_counter() - started
         field.finish_steps()
-        app.processEvents()
-        assert window.compute_count - computes0 >= steps - 1  # every edit was shown
+        _wait_idle(app, window)
+        assert window.result.design == window.document.design  # the last edit is on view
         return (counter.frames - frames0) / wall, steps / wall
 
     drag()  # warm up: imports, caches, first paints
@@ -215,6 +247,40 @@ def bench_animation(arrangement: str) -> None:
     print(f"edits/s kept while the animation plays: {100.0 * play_edits / still_edits:.0f} %")
     print()
     _close_window(window)
+
+
+def bench_slow() -> None:
+    """The longest the interface thread is held by one step of a drag on a spring design with
+    damping (the slowest kind to analyse), analysis inline against on the worker."""
+    from PySide6.QtWidgets import QApplication
+
+    from app.form.number_field import NumberField
+    from app.window.main_window import MainWindow
+    from core import load_design
+
+    app = QApplication.instance() or QApplication(sys.argv[:1])
+    for inline in (True, False):
+        window = MainWindow(load_design(SLOW_EXAMPLE), None, remember_layout=False)
+        window.analyse_inline = inline
+        window.resize(1440, 900)
+        window.show()
+        window.compute_now()
+        field = window.design_panel.row("parts[0].length_m").editor()
+        assert isinstance(field, NumberField)
+        held = []
+        for i in range(60):
+            t0 = time.perf_counter()
+            field.stepBy(1 if (i // 20) % 2 == 0 else -1)
+            app.processEvents()
+            held.append(time.perf_counter() - t0)
+        field.finish_steps()
+        _wait_idle(app, window)
+        print(f"{SLOW_EXAMPLE.name}, analysis "
+              f"{'on the interface thread' if inline else 'on the worker'}: interface thread "
+              f"held per step median {statistics.median(held) * 1000:.1f} ms, "
+              f"max {max(held) * 1000:.1f} ms")
+        _close_window(window)
+    print()
 
 
 def bench_preview() -> None:

@@ -16,6 +16,7 @@ import stat
 from pathlib import Path
 from typing import Any
 
+from .atomic_write import FileStamp
 from .atomic_write import write_text_atomic as _atomic_write
 from .design import Bob, ClampMount, Design, Part, Rod, Sleeve
 from .errors import DesignError, guarded
@@ -238,15 +239,30 @@ def _read_bytes(path: str | os.PathLike[str]) -> bytes:
 
 
 @guarded("file")
-def save_design(design: Design, path: str | os.PathLike[str]) -> None:
-    """Validate ``design`` and write it to ``path`` atomically (temporary file, flush, rename).
+def save_design(design: Design, path: str | os.PathLike[str], *,
+                expect: FileStamp | None = None, force: bool = False) -> FileStamp:
+    """Validate ``design`` and write it to ``path`` atomically (temporary file, flush, rename;
+    see :mod:`core.atomic_write`).
 
-    A design that does not validate is refused before anything is written.
+    A design that does not validate is refused before anything is written. ``expect`` is the
+    file's stamp when it was opened (:func:`core.atomic_write.file_stamp`) or the one the last
+    save returned: when the file was changed on disk since, the save is refused
+    (:class:`~core.atomic_write.FileChangedError`) unless ``force``.
+
+    Returns
+    -------
+    FileStamp
+        The file as written; pass it as ``expect`` to the next save.
+
+    Raises
+    ------
+    FileChangedError, ReadOnlyFileError, DesignError
+        ``field="file"`` (or the offending field); the file on disk is then untouched.
     """
     _check_path("save_design", path)
     text = dumps_design(design)
     design_from_dict(json.loads(text))
-    write_text_atomic(path, text)
+    return _atomic_write(path, text, expect=expect, force=force)
 
 
 @guarded("file")

@@ -17,6 +17,7 @@ from PySide6.QtCore import QObject, Signal
 from PySide6.QtGui import QUndoCommand, QUndoStack
 
 from core import Design, DesignError, design_from_dict, load_design, save_design
+from core.atomic_write import FileStamp, file_stamp
 
 __all__ = ["Document", "EditCommand", "blank_design", "read_design_file"]
 
@@ -124,6 +125,9 @@ class Document(QObject):
         self._design = design
         self._committed = design
         self._path = Path(path) if path is not None else None
+        # The file as it was read or last saved: a save refuses to overwrite it if another
+        # program changed it since (the window asks first).
+        self._stamp: FileStamp | None = file_stamp(path) if path is not None else None
         self._dirty = False
         self._restored = False  # holds edits recovered after a crash, not yet saved
         self.undo_stack = QUndoStack(self)
@@ -149,6 +153,11 @@ class Document(QObject):
     def is_dirty(self) -> bool:
         """True when there are edits not yet saved."""
         return self._dirty
+
+    @property
+    def file_stamp(self) -> FileStamp | None:
+        """The document's file as it was read or last saved (None: no file, or unreadable)."""
+        return self._stamp
 
     def display_name(self) -> str:
         """The file name, or “Untitled” for a document never saved."""
@@ -184,17 +193,24 @@ class Document(QObject):
         self.designChanged.emit(design)
 
     # ------------------------------------------------------------------ files
-    def replace(self, design: Design, path: str | Path | None) -> None:
-        """Start over with ``design`` (File ▸ New / Open): empty history, saved state."""
-        self._start_over(design, path, restored=False)
+    def replace(self, design: Design, path: str | Path | None,
+                stamp: FileStamp | None = None) -> None:
+        """Start over with ``design`` (File ▸ New / Open): empty history, saved state.
+        ``stamp`` is the file's stamp taken *before* it was read (default: taken now)."""
+        self._start_over(design, path, restored=False, stamp=stamp)
 
     def restore(self, design: Design, path: str | Path | None) -> None:
         """Start over with ``design`` recovered after a crash: empty history, **unsaved**, with
-        ``path`` (the file it was being edited from; None when it had none) as its file."""
+        ``path`` (the file it was being edited from; None when it had none) as its file. The
+        file as it is now is what a save will replace without asking."""
         self._start_over(design, path, restored=True)
 
-    def _start_over(self, design: Design, path: str | Path | None, restored: bool) -> None:
+    def _start_over(self, design: Design, path: str | Path | None, restored: bool,
+                    stamp: FileStamp | None = None) -> None:
         self._restored = restored
+        if stamp is None and path is not None:
+            stamp = file_stamp(path)
+        self._stamp = stamp
         self.undo_stack.clear()
         self._path = Path(path) if path is not None else None
         self.undo_stack.setClean()
@@ -205,21 +221,34 @@ class Document(QObject):
     def open(self, path: str | Path) -> None:
         """Read the design file at ``path``; raises :class:`core.DesignError` and keeps the
         current document (design, path, history, dirty flag) when the file cannot be used."""
-        self.replace(read_design_file(path), path)
+        stamp = file_stamp(path)  # before reading: a change meanwhile is caught at save
+        self.replace(read_design_file(path), path, stamp)
 
-    def save(self, path: str | Path | None = None) -> None:
+    def save(self, path: str | Path | None = None, *, force: bool = False) -> None:
         """Write the committed design to ``path`` (default: the document's file) atomically.
+
+        Saving to the document's own file refuses to overwrite it when another program
+        changed it since it was read or last saved, unless ``force``; saving under another
+        name replaces what is there (the save dialog asked).
 
         Raises
         ------
+        FileChangedError
+            The document's file changed on disk (``force=True`` overwrites it).
+        ReadOnlyFileError
+            The file is read-only (save under another name).
         DesignError
-            ``field='file'`` when it cannot be written; the document then stays unsaved.
+            ``field='file'`` when it cannot be written. In every case the file on disk is
+            untouched and the document stays unsaved.
         """
         target = Path(path) if path is not None else self._path
         if target is None:
             raise DesignError("file", "choose a file name first (Save As…)")
         self.revert_preview()
-        save_design(self._committed, target)
+        same_file = self._path is not None and (
+            target == self._path or os.path.realpath(target) == os.path.realpath(self._path))
+        self._stamp = save_design(self._committed, target,
+                                  expect=self._stamp if same_file else None, force=force)
         changed_path = target != self._path
         self._path = target
         self._restored = False

@@ -1,7 +1,9 @@
 """Autosave of unsaved edits, and their recovery after a crash.
 
-While the document has unsaved edits, :class:`Autosaver` writes its design every
-``interval_s`` seconds (30 by default) into the recovery folder, through the core's atomic
+While the document has unsaved edits, :class:`Autosaver` writes its design ``delay_s`` seconds
+after the last edit (3 by default; during a long run of edits at most ``MAX_DELAY_S`` after the
+first one), and in any case every ``interval_s`` seconds (30 by default), into the recovery
+folder, through the core's atomic
 writer, as a session of three files::
 
     <session>.pendulum.json   the design itself: a valid design file, openable on its own
@@ -22,6 +24,7 @@ from __future__ import annotations
 
 import json
 import os
+import time
 import uuid
 from dataclasses import dataclass
 from datetime import UTC, datetime
@@ -34,11 +37,13 @@ from app.document.document import Document, read_design_file
 from core import Design, DesignError, dumps_design
 from core.fileformat import write_text_atomic
 
-__all__ = ["AUTOSAVE_INTERVAL_S", "DATA_DIR_ENV", "RECOVERY_FORMAT", "Autosaver",
-           "RecoveryEntry", "data_folder", "find_orphans", "read_entry", "recovery_folder",
-           "remove_entry", "set_aside"]
+__all__ = ["AUTOSAVE_DELAY_S", "AUTOSAVE_INTERVAL_S", "DATA_DIR_ENV", "MAX_DELAY_S",
+           "RECOVERY_FORMAT", "Autosaver", "RecoveryEntry", "data_folder", "find_orphans",
+           "read_entry", "recovery_folder", "remove_entry", "set_aside"]
 
 AUTOSAVE_INTERVAL_S = 30.0
+AUTOSAVE_DELAY_S = 3.0   # after the last edit: a crash loses at most the last few seconds
+MAX_DELAY_S = 10.0       # a long run of edits is autosaved at least this often
 DATA_DIR_ENV = "PENDULINE_DATA_DIR"
 RECOVERY_FORMAT = "penduline-recovery"
 RECOVERY_VERSION = 1
@@ -223,6 +228,9 @@ class Autosaver(QObject):
         written).
     interval_s : float
         Seconds between autosaves while the document is unsaved.
+    delay_s : float
+        Seconds after the last edit before it is autosaved (edits in quick succession wait
+        for the last one, but never more than ``MAX_DELAY_S`` after the first).
 
     Signals
     -------
@@ -237,7 +245,8 @@ class Autosaver(QObject):
     failed = Signal(str)
 
     def __init__(self, document: Document, folder: Path | None = None,
-                 interval_s: float = AUTOSAVE_INTERVAL_S, parent: QObject | None = None) -> None:
+                 interval_s: float = AUTOSAVE_INTERVAL_S, parent: QObject | None = None,
+                 delay_s: float = AUTOSAVE_DELAY_S) -> None:
         super().__init__(parent)
         self.document = document
         self._folder = folder
@@ -249,9 +258,16 @@ class Autosaver(QObject):
         self.timer = QTimer(self)
         self.timer.setInterval(max(1, round(interval_s * 1000)))
         self.timer.timeout.connect(self.autosave_now)
+        self.soon = QTimer(self)  # the autosave a few seconds after the last edit
+        self.soon.setSingleShot(True)
+        self.soon.setInterval(max(1, round(delay_s * 1000)))
+        self.soon.timeout.connect(self.autosave_now)
+        self._first_pending = 0.0
         document.dirtyChanged.connect(self._on_dirty_changed)
+        document.designChanged.connect(self._on_design_changed)
         if document.is_dirty:
             self.timer.start()
+            self._edited()
 
     # ------------------------------------------------------------------ where
     def folder(self) -> Path:
@@ -344,6 +360,7 @@ class Autosaver(QObject):
     def close(self) -> None:
         """End the session cleanly: stop, remove its files and release its lock."""
         self.timer.stop()
+        self.soon.stop()
         self.discard()
         if self._lock is not None:
             _HELD.discard(os.path.abspath(self._lock.fileName()))
@@ -356,6 +373,22 @@ class Autosaver(QObject):
         if dirty:
             if not self.timer.isActive():
                 self.timer.start()
+            self._edited()
         else:
             self.timer.stop()
+            self.soon.stop()
             self.discard()
+
+    def _on_design_changed(self, _design: Design) -> None:
+        if self.document.is_dirty:
+            self._edited()
+
+    def _edited(self) -> None:
+        """(Re)start the short wait: edits in quick succession are written once, after the
+        last one, or ``MAX_DELAY_S`` after the first when they go on."""
+        now = time.monotonic()
+        if not self.soon.isActive():
+            self._first_pending = now
+            self.soon.start()
+        elif now - self._first_pending < MAX_DELAY_S:
+            self.soon.start()

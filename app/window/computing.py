@@ -1,6 +1,10 @@
 """Computing in the window: the newest design is analysed once control returns to the event
-loop, however many edits arrived meanwhile; plots hidden behind another tab are drawn when they
-come into view. Also the baseline and the unit system, which re-show the last result.
+loop, however many edits arrived meanwhile, on a pool thread (:mod:`app.window.analysis_worker`)
+so the window never waits for it: at most one analysis runs, the newest design asked for
+meanwhile runs next, and a result older than the one on view is dropped. An analysis that
+takes longer than ``BUSY_NOTICE_MS`` shows "Computing…" in the status bar. Plots hidden behind
+another tab are drawn when they come into view. Also the baseline and the unit system, which
+re-show the last result.
 
 The readout's choices (the height at which to quote the trim weight, the rate budget's
 ranges) are passed to ``core.analyse`` as they are; the budget's ranges are judged by the
@@ -11,51 +15,133 @@ from __future__ import annotations
 
 import time
 from dataclasses import asdict
+from typing import Any
+
+from PySide6.QtCore import QTimer
 
 from app.document.settings import app_settings, store_budget_ranges
 from app.form.labels import field_label
 from app.form.units import UnitSystem
+from app.window.analysis_worker import AnalysisRunner, warm_up
 from app.window.exhibit_focus import focus_for_purpose
 from app.window.parts import WindowParts
 from core import Design, DesignError, Result, analyse
 from core.tuning import BudgetRanges, budget_ranges
 
-__all__ = ["WindowComputing", "COMPUTE_DELAY_MS"]
+__all__ = ["WindowComputing", "COMPUTE_DELAY_MS", "BUSY_NOTICE_MS", "COMPUTING_TEXT"]
 
 COMPUTE_DELAY_MS = 0
+BUSY_NOTICE_MS = 150  # an analysis longer than this shows COMPUTING_TEXT in the status bar
+COMPUTING_TEXT = "Computing…"
 
 
 class WindowComputing(WindowParts):
     """Coalesced analysis of the document's design, and showing its result everywhere."""
 
+    def _init_computing(self) -> None:
+        """Make the timers and the runner (called once by the window's constructor)."""
+        self._generation = 0          # numbers every request for an analysis
+        self._shown_generation = 0    # the request whose outcome is on view
+        self.analyse_inline = False   # True: on the interface thread (benchmarks compare)
+        self._compute_timer = QTimer(self)
+        self._compute_timer.setSingleShot(True)
+        self._compute_timer.setInterval(COMPUTE_DELAY_MS)
+        self._compute_timer.timeout.connect(self._compute_later)
+        self._busy_timer = QTimer(self)
+        self._busy_timer.setSingleShot(True)
+        self._busy_timer.setInterval(BUSY_NOTICE_MS)
+        self._busy_timer.timeout.connect(self._show_busy)
+        self.analysis_runner = AnalysisRunner(self)
+        self.analysis_runner.finished.connect(self._on_analysis_finished)
+        self.analysis_runner.busyChanged.connect(self._on_busy_changed)
+        QTimer.singleShot(0, warm_up)  # once the event loop runs: after the first paint
+
     def schedule_compute(self) -> None:
         """Ask for the newest design to be analysed once control returns to the event loop."""
         self._compute_timer.start()
 
+    def computing_idle(self) -> bool:
+        """True when no analysis runs or waits: the result on view is the newest there is."""
+        return not self._compute_timer.isActive() and not self.analysis_runner.busy
+
+    def _compute_key(self) -> tuple[Any, ...]:
+        return (self.document.design, self._trim_height, self._budget_ranges)
+
+    def _compute_later(self) -> None:
+        """Hand the newest design to the runner (it runs next when one is running)."""
+        if self.analyse_inline:
+            self.compute_now()
+            return
+        key = self._compute_key()
+        runner = self.analysis_runner
+        if key == runner.running_key:
+            runner.cancel_waiting()  # the one running is the one wanted
+            return
+        if not runner.busy and key == self._computed_key:
+            return
+        self._generation += 1
+        design, trim, ranges = key
+        runner.request(self._generation, key, analyse, design, trim_height_m=trim,
+                       budget_ranges=ranges)
+
     def compute_now(self) -> None:
-        """Analyse the document's design (unless it is the one already shown) and show it."""
+        """Analyse the document's design here and now (unless it is the one already shown)
+        and show it; an analysis still running for an older design is dropped when it ends.
+        For actions that need the figures at once (export, pin a baseline) and for tests."""
         self._compute_timer.stop()
-        design = self.document.design
-        key = (design, self._trim_height, self._budget_ranges)
+        self.analysis_runner.cancel_waiting()
+        self._generation += 1
+        self._shown_generation = self._generation  # whatever runs now is superseded
+        key = self._compute_key()
         if key == self._computed_key:
             return
-        self._computed_key = key
         started = time.perf_counter()
         try:
-            result = analyse(design, trim_height_m=self._trim_height,
-                             budget_ranges=self._budget_ranges)
-        except DesignError as exc:
-            self._problem = exc
-            self._show_compute_problem(exc)
+            outcome: object = analyse(key[0], trim_height_m=key[1], budget_ranges=key[2])
+        except Exception as exc:  # shown as a problem, never into the event loop
+            outcome = exc
+        self._apply_outcome(key, outcome, (time.perf_counter() - started) * 1000.0)
+
+    def _on_analysis_finished(self, generation: int, key: object, outcome: object,
+                              elapsed_ms: float) -> None:
+        if generation <= self._shown_generation:
+            return  # a newer design is already on view
+        self._shown_generation = generation
+        self._apply_outcome(key, outcome, elapsed_ms)
+
+    def _apply_outcome(self, key: object, outcome: object, elapsed_ms: float) -> None:
+        """Show a finished analysis: its result, or why the design cannot be computed."""
+        self._computed_key = key  # type: ignore[assignment]
+        if isinstance(outcome, DesignError):
+            self._problem = outcome
+            self._show_compute_problem(outcome)
             return
-        except Exception as exc:  # never let a defect escape into the event loop
-            self.readout.show_compute_problem(f"Unexpected failure: {type(exc).__name__}: "
-                                              f"{exc}. Showing the last result.")
+        if not isinstance(outcome, Result):
+            self.readout.show_compute_problem(
+                f"Unexpected failure: {type(outcome).__name__}: {outcome}. Showing the last "
+                "result.")
             return
-        self.last_compute_ms = (time.perf_counter() - started) * 1000.0
+        self.last_compute_ms = elapsed_ms
         self.compute_count += 1
         self._problem = None
-        self._show_result(result)
+        self._show_result(outcome)
+
+    def _on_busy_changed(self, busy: bool) -> None:
+        if busy:
+            self._busy_timer.start()  # a quick analysis never shows the notice
+        else:
+            self._busy_timer.stop()
+            if self.compute_label.text() == COMPUTING_TEXT:
+                self.compute_label.setText(self._compute_label_text())
+
+    def _show_busy(self) -> None:
+        if self.analysis_runner.busy:
+            self.compute_label.setText(COMPUTING_TEXT)
+
+    def _compute_label_text(self) -> str:
+        if self.compute_count > 1:  # the first analysis also pays one-time imports
+            return f"analysis {self.last_compute_ms:.1f} ms"
+        return ""
 
     def _show_result(self, result: Result) -> None:
         self.result = result
@@ -64,8 +150,8 @@ class WindowComputing(WindowParts):
         self._refresh_plots()
         self.readout.show_result(result, self.baseline)
         self.design_panel.set_result(result)
-        if self.compute_count > 1:  # the first analysis also pays one-time imports
-            self.compute_label.setText(f"analysis {self.last_compute_ms:.1f} ms")
+        if not (self.analysis_runner.busy and self.compute_label.text() == COMPUTING_TEXT):
+            self.compute_label.setText(self._compute_label_text())
         self._reshow_problem()
 
     def _reshow_problem(self) -> None:

@@ -1,4 +1,9 @@
-"""The window's file handling: new, open, save, export, and the unsaved-changes question."""
+"""The window's file handling: new, open, save, export, and the unsaved-changes question.
+
+A save respects the file: the document remembers the file as it was read or last saved, and
+when another program changed it since, the window asks (Overwrite / Save As… / Cancel); a
+read-only file is not replaced (Save As… is offered); any other refusal is said in a sentence
+and the document stays unsaved."""
 
 from __future__ import annotations
 
@@ -11,10 +16,13 @@ from app.document.settings import add_recent_file
 from app.launch import default_design_path
 from app.window.parts import WindowParts
 from core import DesignError
+from core.atomic_write import FileChangedError, ReadOnlyFileError, file_stamp
 
-__all__ = ["WindowFiles", "DESIGN_FILTER", "examples_folder", "example_files", "example_title"]
+__all__ = ["WindowFiles", "DESIGN_FILTER", "examples_folder", "example_files", "example_title",
+           "OVERWRITE", "SAVE_AS", "CANCEL"]
 
 DESIGN_FILTER = "Penduline designs (*.pendulum.json *.json);;All files (*)"
+OVERWRITE, SAVE_AS, CANCEL = "overwrite", "save_as", "cancel"  # answers to a changed file
 
 
 def examples_folder() -> Path:
@@ -70,6 +78,7 @@ class WindowFiles(WindowParts):
         the field, before any question about unsaved edits, and the open document (design,
         file, history, unsaved state) is left exactly as it was.
         """
+        stamp = file_stamp(path)  # before reading: a change meanwhile is caught at save
         try:
             design = read_design_file(path)
         except DesignError as exc:
@@ -79,7 +88,8 @@ class WindowFiles(WindowParts):
         if not self.confirm_discard():
             return False
         self._trim_height = None
-        self.document.replace(design, None if as_example else path)
+        self.document.replace(design, None if as_example else path,
+                              None if as_example else stamp)
         if not as_example:
             add_recent_file(path)
         return True
@@ -108,15 +118,49 @@ class WindowFiles(WindowParts):
         return path if path.name.endswith(".json") else path.with_name(path.name +
                                                                        ".pendulum.json")
 
-    def _save_to(self, path: Path) -> bool:
+    def _save_to(self, path: Path, force: bool = False) -> bool:
+        """Save; a file changed on disk or read-only is asked about, any other refusal is
+        said. Whatever was refused leaves the file untouched and the document unsaved."""
         try:
-            self.document.save(path)
+            self.document.save(path, force=force)
+        except FileChangedError:
+            answer = self.ask_file_changed(path)
+            if answer == OVERWRITE:
+                return self._save_to(path, force=True)
+            return self.save_as() if answer == SAVE_AS else False
+        except ReadOnlyFileError:
+            return self.save_as() if self.ask_read_only(path) else False
         except DesignError as exc:
             self.show_message("Cannot save design", exc.reason)
             return False
         add_recent_file(path)
         self.statusBar().showMessage(f"Saved {path.name}", 3000)
         return True
+
+    def ask_file_changed(self, path: Path) -> str:
+        """Another program changed ``path`` since it was opened or saved: ``OVERWRITE``,
+        ``SAVE_AS`` or ``CANCEL``."""
+        box = QMessageBox(QMessageBox.Icon.Warning, "File changed on disk",
+                          f"{path.name} was changed by another program since it was opened "
+                          "or last saved here. Saving now replaces those changes.", parent=self)
+        overwrite = box.addButton("Overwrite", QMessageBox.ButtonRole.DestructiveRole)
+        save_as = box.addButton("Save As…", QMessageBox.ButtonRole.AcceptRole)
+        cancel = box.addButton(QMessageBox.StandardButton.Cancel)
+        box.setDefaultButton(cancel)
+        box.exec()
+        clicked = box.clickedButton()
+        return OVERWRITE if clicked is overwrite else SAVE_AS if clicked is save_as else CANCEL
+
+    def ask_read_only(self, path: Path) -> bool:
+        """``path`` is read-only: True when the person wants to save under another name."""
+        box = QMessageBox(QMessageBox.Icon.Warning, "File is read-only",
+                          f"{path.name} is read-only, so it cannot be replaced. Save the design "
+                          "under another name?", parent=self)
+        save_as = box.addButton("Save As…", QMessageBox.ButtonRole.AcceptRole)
+        box.addButton(QMessageBox.StandardButton.Cancel)
+        box.setDefaultButton(save_as)
+        box.exec()
+        return box.clickedButton() is save_as
 
     def ask_export_plots(self) -> None:
         """File ▸ Export plots…: choose a folder."""

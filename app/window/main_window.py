@@ -2,8 +2,9 @@
 
 The window holds one :class:`~app.document.document.Document`. Every change of the shown design
 starts a single-shot zero-delay timer; when it fires, only the newest design is analysed (by
-``core.analyse``, the one place figures come from) and shown, so a burst of edits never queues
-stale work (:mod:`app.window.computing`). A design the core cannot compute leaves the views
+``core.analyse``, the one place figures come from, on a pool thread) and shown, so a burst of
+edits never queues stale work and a slow design never freezes the window
+(:mod:`app.window.computing`). A design the core cannot compute leaves the views
 and figures at the last good result and says why.
 """
 
@@ -12,7 +13,7 @@ from __future__ import annotations
 from pathlib import Path
 from typing import Any, cast
 
-from PySide6.QtCore import Qt, QTimer
+from PySide6.QtCore import Qt
 from PySide6.QtWidgets import QLabel, QMainWindow, QMessageBox, QSplitter, QWidget
 
 from app import theme
@@ -24,7 +25,7 @@ from app.form.units import UnitSystem
 from app.readout.readout_panel import ReadoutPanel
 from app.views.catalogue import make_views
 from app.views.plot_area import PlotArea
-from app.window.computing import COMPUTE_DELAY_MS, WindowComputing
+from app.window.computing import WindowComputing
 from app.window.files import DESIGN_FILTER, WindowFiles, example_files, examples_folder
 from app.window.layout import DEFAULT_ARRANGEMENT, WindowLayout, stored_units
 from app.window.menus import WindowMenus
@@ -63,10 +64,7 @@ class MainWindow(WindowMenus, WindowComputing, WindowFiles, WindowLayout, QMainW
         self._computed_key: tuple[Any, ...] | None = None
         self._problem: DesignError | None = None  # why the shown design cannot be computed
         self._system = stored_units() if remember_layout else UnitSystem.METRIC
-        self._compute_timer = QTimer(self)
-        self._compute_timer.setSingleShot(True)
-        self._compute_timer.setInterval(COMPUTE_DELAY_MS)
-        self._compute_timer.timeout.connect(self.compute_now)
+        self._init_computing()
         self.autosaver: Autosaver | None = None
         if remember_layout if autosave is None else autosave:
             self.autosaver = Autosaver(self.document, parent=self)

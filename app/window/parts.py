@@ -24,6 +24,7 @@ if TYPE_CHECKING:
     from app.readout.readout_panel import ReadoutPanel
     from app.views.base import View
     from app.views.plot_area import PlotArea
+    from app.window.analysis_worker import AnalysisRunner
     from core import DesignError, Result
     from core.tuning import BudgetRanges
 
@@ -53,9 +54,14 @@ if TYPE_CHECKING:
         _problem: DesignError | None
         _system: UnitSystem
         _compute_timer: QTimer
+        _busy_timer: QTimer
+        _generation: int
+        _shown_generation: int
+        analysis_runner: AnalysisRunner
         _stale_plots: set[int]
 
         def compute_now(self) -> None: ...
+        def computing_idle(self) -> bool: ...
         def schedule_compute(self) -> None: ...
         def _refresh_plots(self, everything: bool = False) -> None: ...
         def show_message(self, title: str, text: str) -> None: ...

@@ -33,7 +33,7 @@ def type_into(qtbot, field: NumberField, text: str) -> None:  # type: ignore[no-
 
 
 def wait_computed(qtbot, window: MainWindow) -> None:  # type: ignore[no-untyped-def]
-    qtbot.waitUntil(lambda: window.result is not None
+    qtbot.waitUntil(lambda: window.computing_idle() and window.result is not None
                     and window.result.design == window.document.design)
 
 
@@ -86,6 +86,7 @@ class TestLiveEditing:
         for i in range(320):
             length.stepBy(-1 if i % 4 == 3 else 1)  # a wavering drag, 160 mm longer overall
             app.processEvents()
+            qtbot.waitUntil(window.computing_idle)  # each step analysed and shown
         length.finish_steps()
         app.processEvents()
         wait_computed(qtbot, window)

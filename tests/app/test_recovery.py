@@ -11,8 +11,10 @@ from __future__ import annotations
 
 import json
 import os
+import signal
 import subprocess
 import sys
+import time
 from collections.abc import Iterator
 from pathlib import Path
 from typing import Any
@@ -22,6 +24,7 @@ import pytest
 from app.document import recovery
 from app.document.document import Document
 from app.document.recovery import (
+    AUTOSAVE_DELAY_S,
     AUTOSAVE_INTERVAL_S,
     DATA_DIR_ENV,
     Autosaver,
@@ -148,6 +151,31 @@ class TestAutosave:
         assert info["format"] == "penduline-recovery"
         assert info["original_path"] == str(example_copy)
         assert info["name"] == edited.name
+        saver.close()
+
+    def test_an_edit_is_autosaved_a_moment_after_it_is_made(self, qtbot, folder: Path) -> None:  # type: ignore[no-untyped-def]
+        document = Document(load_design(EXAMPLE))
+        saver = Autosaver(document, folder, interval_s=3600.0, delay_s=0.2)
+        assert AUTOSAVE_DELAY_S == 3.0 and Autosaver(document, folder).soon.interval() == 3000
+        edited = _edit(document.design, 3.0)
+        with qtbot.waitSignal(saver.saved, timeout=5000) as signal:
+            document.commit(edited, "Change semi-arc", "swing.amplitude_deg")
+        assert load_design(signal.args[0]) == edited  # not the 1 h interval: the short delay
+        saver.close()
+
+    def test_edits_in_quick_succession_are_written_once_after_the_last(
+            self, qtbot, folder: Path) -> None:  # type: ignore[no-untyped-def]
+        document = Document(load_design(EXAMPLE))
+        saver = Autosaver(document, folder, interval_s=3600.0, delay_s=1.0)
+        writes: list[Path] = []
+        saver.saved.connect(writes.append)
+        for arc in (2.6, 2.7, 2.8):
+            document.preview(_edit(document.design, arc))  # a drag: live edits
+            assert saver.soon.isActive() and saver.soon.remainingTime() > 500  # (re)started
+        assert writes == []
+        qtbot.waitUntil(lambda: len(writes) == 1, timeout=5000)
+        qtbot.wait(200)
+        assert len(writes) == 1 and load_design(writes[0]).swing.amplitude_deg == 2.8
         saver.close()
 
     def test_nothing_is_written_while_the_document_is_saved(self, qtbot, folder: Path) -> None:  # type: ignore[no-untyped-def]
@@ -284,6 +312,58 @@ class TestRecovery:
         assert win.save()
         assert load_design(example_copy) == doc.design and not doc.is_dirty
         assert [n for n in _files(folder) if not n.endswith(".lock")] == []
+
+    def test_a_window_killed_seconds_after_an_edit_gives_the_edit_back(
+            self, make_window, folder: Path, example_copy: Path, data_dir: Path) -> None:  # type: ignore[no-untyped-def]
+        code = (
+            "import sys\n"
+            "from PySide6.QtCore import QTimer\n"
+            "from PySide6.QtWidgets import QApplication\n"
+            "from app.window.main_window import MainWindow\n"
+            "from core import load_design, with_value\n"
+            "app = QApplication([])\n"
+            "path = sys.argv[1]\n"
+            "win = MainWindow(load_design(path), path, remember_layout=False, autosave=True)\n"
+            "win.autosaver.timer.setInterval(3_600_000)  # only the short delay may write\n"
+            "win.show()\n"
+            "def edit():\n"
+            "    win.document.commit(with_value(win.document.design, 'parts[0].length_m',\n"
+            "                                   1.25), 'Edit', 'x')\n"
+            "    print('edited', flush=True)\n"
+            "QTimer.singleShot(300, edit)\n"
+            "app.exec()\n")
+        child = subprocess.Popen([sys.executable, "-c", code, str(example_copy)], cwd=ROOT,
+                                 env={**os.environ, DATA_DIR_ENV: str(data_dir),
+                                      "QT_QPA_PLATFORM": "offscreen"},
+                                 stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True)
+        try:
+            assert child.stdout is not None
+            assert child.stdout.readline().strip() == "edited", child.stderr
+            edited = with_value(load_design(EXAMPLE), "parts[0].length_m", 1.25)
+
+            def autosaved() -> bool:
+                for p in folder.glob("*.pendulum.json") if folder.exists() else []:
+                    try:
+                        return load_design(p) == edited
+                    except ValueError:  # not yet whole: the writer renames it into place
+                        return False
+                return False
+
+            deadline = time.monotonic() + 60.0
+            while not autosaved() and time.monotonic() < deadline and child.poll() is None:
+                time.sleep(0.1)
+            assert autosaved(), "the edit was not autosaved"
+        finally:
+            os.kill(child.pid, signal.SIGKILL)  # the window's process dies mid-session
+            child.wait(timeout=60)
+        assert child.returncode == -signal.SIGKILL
+        on_disk = example_copy.read_bytes()
+        win = make_window(load_design(EXAMPLE), example_copy, answer=True)
+        assert win.offer_recovery()
+        [entry] = win.ask_restore.offered
+        assert entry.original_path == example_copy
+        assert win.document.design == edited and win.document.is_dirty
+        assert example_copy.read_bytes() == on_disk
 
     def test_restore_of_a_design_never_saved(self, make_window, crashed,  # type: ignore[no-untyped-def]
                                              folder: Path) -> None:
