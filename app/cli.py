@@ -30,19 +30,46 @@ class _Parser(argparse.ArgumentParser):
         raise _UsageError(message)
 
 
-def _parsers() -> tuple[_Parser, _Parser]:
-    window = _Parser(prog="penduline", description="Open the Penduline workbench.",
-                     epilog=f"Commands: {', '.join(COMMANDS)} (penduline COMMAND --help).")
+COMMAND_HELP = {
+    "report": "print the readout of a design (or --json)",
+    "sweep": "period and rate against one field, as CSV",
+    "export": "write plots, data and a PDF report, no display needed",
+}
+
+
+def _window_parser() -> _Parser:
+    """The window's words (``penduline [FILE] ...``); builds the view list, so imports Qt."""
+    from app.launch import view_names
+
+    sub = next(a for a in _tools_parser()._actions
+               if isinstance(a, argparse._SubParsersAction))
+    commands = "\n".join(f"  penduline {action.dest:<8} {action.help}"
+                         for action in sub._choices_actions)
+    window = _Parser(prog="penduline", formatter_class=argparse.RawDescriptionHelpFormatter,
+                     description="Open the Penduline workbench on a design file.",
+                     epilog=f"commands (penduline COMMAND --help for their options):\n"
+                            f"{commands}")
     window.add_argument("file", nargs="?", help="design file to open (default: an example)")
     window.add_argument("--screenshot", metavar="OUT.png",
-                        help="draw the window offscreen, save it as PNG and exit")
+                        help="draw the window offscreen at 1440x900, save it as PNG and exit")
+    window.add_argument("--view", metavar="NAME", choices=view_names(),
+                        help="the view on show (with --screenshot too): "
+                             f"{', '.join(view_names()[:-1])}, or 'all' for the plots together")
     window.add_argument("--debug", action="store_true",
                         help="on a program failure, print the traceback (any command)")
+    return window
+
+
+def _tools_parser() -> _Parser:
+    """The commands' words (``penduline COMMAND ...``); no Qt needed."""
     tools = _Parser(prog="penduline")
     sub = tools.add_subparsers(dest="command", required=True)
-    rep = sub.add_parser("report", help="print the readout")
-    rep.add_argument("file")
-    rep.add_argument("--json", action="store_true", help="one JSON object, SI units")
+    rep = sub.add_parser("report", help=COMMAND_HELP["report"],
+                         description="Print the readout of a design: figures, rate budget, "
+                                     "warnings and cautions.")
+    rep.add_argument("file", help="design file (*.pendulum.json)")
+    rep.add_argument("--json", action="store_true",
+                     help="print one JSON object instead, SI units, keys named with their unit")
     rep.add_argument("--trim-height", type=float, metavar="M",
                      help="quote the 1 g trim sensitivity at this height below the pivot (m)")
     rep.add_argument("--budget-temperature", type=float, default=5.0, metavar="K",
@@ -74,15 +101,26 @@ def _parsers() -> tuple[_Parser, _Parser]:
     sol.add_argument("--force", action="store_true",
                      help="with --write: overwrite OUT even if another program changed it "
                           "since it was read")
-    swp = sub.add_parser("sweep", help="period and rate against one field, as CSV")
-    swp.add_argument("file")
-    swp.add_argument("--vary", required=True, metavar="FIELD", help="field path, or 'pivot'")
-    swp.add_argument("--from", dest="start", type=float, required=True)
-    swp.add_argument("--to", dest="stop", type=float, required=True)
-    swp.add_argument("--points", type=int, default=51)
-    exp = sub.add_parser("export", help="write plots, data and a PDF report, no display needed")
-    exp.add_argument("file")
-    exp.add_argument("--out", required=True, metavar="DIR")
+    swp = sub.add_parser("sweep", help=COMMAND_HELP["sweep"],
+                         description="Print the period and rate as CSV (one row per point) "
+                                     "while one field of the design runs over a range; "
+                                     "points the design cannot take are left empty.")
+    swp.add_argument("file", help="design file (*.pendulum.json)")
+    swp.add_argument("--vary", required=True, metavar="FIELD",
+                     help="field path in SI units, e.g. 'parts[1].mount.centre_m', or 'pivot' "
+                          "(moves the pivot down the pendulum by the value, m)")
+    swp.add_argument("--from", dest="start", type=float, required=True, metavar="VALUE",
+                     help="first value of the field, in the field's SI unit")
+    swp.add_argument("--to", dest="stop", type=float, required=True, metavar="VALUE",
+                     help="last value of the field, in the field's SI unit")
+    swp.add_argument("--points", type=int, default=51, metavar="N",
+                     help="number of evenly spaced values, ends included (default 51)")
+    exp = sub.add_parser("export", help=COMMAND_HELP["export"],
+                         description="Write every plot (PNG and SVG), the data (CSV) and the "
+                                     "PDF report of a design into a folder; no display needed.")
+    exp.add_argument("file", help="design file (*.pendulum.json)")
+    exp.add_argument("--out", required=True, metavar="DIR",
+                     help="folder to write into (made if missing; files in it are replaced)")
     exp.add_argument("--sheet", action="store_true",
                      help="also write the one-page client sheet (client_sheet.pdf) and one "
                           "full swing at true speed (swing.gif)")
@@ -110,7 +148,7 @@ def _parsers() -> tuple[_Parser, _Parser]:
     bts.add_argument("--json", action="store_true", help="one JSON object, SI units")
     for p in (rep, sol, swp, exp, rat, bts):
         p.__class__ = _Parser
-    return window, tools
+    return tools
 
 
 def main(argv: Sequence[str] | None = None) -> int:
@@ -121,13 +159,12 @@ def main(argv: Sequence[str] | None = None) -> int:
     from core import DesignError
 
     try:
-        window, tools = _parsers()
         if args_list and args_list[0] in COMMANDS:
-            args = tools.parse_args(args_list)
+            args = _tools_parser().parse_args(args_list)
             return _COMMAND_RUNNERS[args.command](args)
-        args = window.parse_args(args_list)
+        args = _window_parser().parse_args(args_list)
         from app.launch import run_window
-        return run_window(args.file, args.screenshot)
+        return run_window(args.file, args.screenshot, args.view)
     except DesignError as exc:
         print(f"penduline: {exc.field}: {exc.reason}", file=sys.stderr)
         return 2

@@ -1,14 +1,33 @@
-"""Starting the workbench window, or drawing it once offscreen for a screenshot."""
+"""Starting the workbench window, or drawing it once offscreen for a screenshot.
+
+Before Qt is asked for a window on Linux's X11 platform, :func:`missing_xcb_libraries` looks
+for the system libraries Qt's ``xcb`` plugin needs beyond Qt itself; when one is missing the
+command prints one line naming the packages (Qt's own message names only the first).
+"""
 
 from __future__ import annotations
 
+import ctypes
+import ctypes.util
 import os
 import sys
+from collections.abc import Callable
 from pathlib import Path
 
-__all__ = ["run_window", "default_design_path", "SCREENSHOT_SIZE"]
+__all__ = ["run_window", "default_design_path", "SCREENSHOT_SIZE", "view_names",
+           "missing_xcb_libraries", "XCB_LIBRARIES", "XCB_HINT", "ALL_VIEWS"]
 
 SCREENSHOT_SIZE = (1440, 900)
+ALL_VIEWS = "all"  # --view all: the plots together in the grid
+
+XCB_LIBRARIES = {  # library Qt's xcb plugin loads: its Debian/Ubuntu package
+    "xcb-cursor": ("libxcb-cursor.so.0", "libxcb-cursor0"),
+    "xcb-icccm": ("libxcb-icccm.so.4", "libxcb-icccm4"),
+    "xcb-keysyms": ("libxcb-keysyms.so.1", "libxcb-keysyms1"),
+}
+XCB_HINT = ("penduline: the window needs the system libraries {names} for Qt's X11 platform, "
+            "and {missing} cannot be found: on Debian/Ubuntu `apt install {packages}` "
+            "(other systems: the xcb-util-cursor, xcb-util-wm and xcb-util-keysyms packages)")
 
 
 def default_design_path() -> Path:
@@ -17,23 +36,77 @@ def default_design_path() -> Path:
             / "workshop_regulator.pendulum.json")
 
 
-def run_window(path: str | None, screenshot: str | None) -> int:
+def view_names() -> list[str]:
+    """The names ``--view`` accepts: each view's slug (from the catalogue), then ``all``."""
+    from app.views.catalogue import VIEWS
+
+    return [cls.slug for cls in VIEWS] + [ALL_VIEWS]
+
+
+def _library_loads(name: str, soname: str) -> bool:
+    """True when the dynamic loader finds ``soname`` (or ``find_library`` finds ``name``)."""
+    try:
+        ctypes.CDLL(soname)
+        return True
+    except OSError:
+        return ctypes.util.find_library(name) is not None
+
+
+def missing_xcb_libraries(finder: Callable[[str, str], bool] | None = None) -> list[str]:
+    """The Debian package names of the xcb libraries Qt's X11 plugin needs and that
+    ``finder(name, soname)`` (default: the dynamic loader) cannot find; empty when Qt will
+    not use X11 (another platform is chosen, no ``DISPLAY``, not Linux) or everything is
+    there."""
+    platform = os.environ.get("QT_QPA_PLATFORM", "")
+    if not sys.platform.startswith("linux") or platform not in ("", "xcb"):
+        return []
+    if not os.environ.get("DISPLAY"):
+        return []
+    if not platform and os.environ.get("WAYLAND_DISPLAY"):
+        return []  # Qt prefers Wayland when it is there
+    found = finder or _library_loads
+    return [package for name, (soname, package) in XCB_LIBRARIES.items()
+            if not found(name, soname)]
+
+
+def _refuse_without_xcb() -> bool:
+    """Print the one line and return True when the X11 platform cannot load."""
+    missing = missing_xcb_libraries()
+    if not missing:
+        return False
+    names = ", ".join(soname for soname, _ in XCB_LIBRARIES.values())
+    packages = " ".join(package for _, package in XCB_LIBRARIES.values())
+    print(XCB_HINT.format(names=names, missing=", ".join(missing), packages=packages),
+          file=sys.stderr)
+    return True
+
+
+def run_window(path: str | None, screenshot: str | None, view: str | None = None) -> int:
     """Open the workbench on the design at ``path`` (default: the built-in example).
 
     With ``screenshot``, the window is drawn offscreen (when there is no display) at
     1440×900 once everything is computed, saved as PNG to ``screenshot``, and 0 is returned.
+    ``view`` names the view on show (a slug of :data:`app.views.catalogue.VIEWS`, or
+    ``"all"`` for the plots together). Returns 1 when the window's system libraries are
+    missing (one line on stderr says which packages to install).
 
     Raises
     ------
     core.DesignError
-        When the file cannot be used (the command line prints it and exits with 2).
+        When the file cannot be used or ``view`` names no view (the command line prints it
+        and exits with 2).
     """
-    from core import load_design
+    from core import DesignError, load_design
 
     design_path = Path(path) if path else default_design_path()
     design = load_design(design_path)  # refuse a bad file before any window appears
+    if view is not None and view not in view_names():
+        raise DesignError("--view", f"there is no view {view!r}; the views are "
+                                    f"{', '.join(view_names())}")
     if screenshot and not (os.environ.get("DISPLAY") or os.environ.get("WAYLAND_DISPLAY")):
         os.environ["QT_QPA_PLATFORM"] = "offscreen"
+    if _refuse_without_xcb():
+        return 1
 
     from PySide6.QtWidgets import QApplication
 
@@ -45,11 +118,25 @@ def run_window(path: str | None, screenshot: str | None) -> int:
     app.setApplicationName(APPLICATION)
     window = MainWindow(design, design_path if path else None,
                         remember_layout=not screenshot)
+    if view is not None:
+        _show_view(window, view)
     if screenshot:
         return _screenshot(app, window, Path(screenshot))
     window.show()
     window.offer_recovery()  # edits autosaved by a run that crashed
     return int(app.exec())
+
+
+def _show_view(window: object, view: str) -> None:
+    """Bring ``view`` on show: ``all`` is the grid page; a view's slug its own tab."""
+    area = window.plot_area  # type: ignore[attr-defined]
+    if view == ALL_VIEWS:
+        area.set_arrangement("grid")
+        area.show_plot(0)
+        return
+    index = next(i for i, plot in enumerate(area.plots) if plot.slug == view)
+    area.set_arrangement("tabs")
+    area.show_plot(index)
 
 
 def _screenshot(app: object, window: object, out: Path) -> int:

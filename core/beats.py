@@ -18,7 +18,7 @@ are rejected before the final fit.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from pathlib import Path
 from typing import Any
 
@@ -167,6 +167,21 @@ class BeatAnalysis:
         mid = 0.5 * (t[1:] + t[:-1])[ok]
         return mid, np.diff(t)[ok], (self.tick_index[:-1] % 2)[ok]
 
+    def rated(self, target_period_s: float | None) -> BeatAnalysis:
+        """The same ticks rated against another target period, s (None: no rate).
+
+        Nothing is detected again: the beat and its σ stay; the rate, its σ, the drift (each
+        third refitted from the accepted ticks) and the drift warning follow the target.
+        """
+        target = _check_target(target_period_s)
+        rate, rate_sigma, drift, drift_sigma = _rates(self.tick_index, self.tick_times_s,
+                                                      self.beat_s, self.beat_sigma_s, target)
+        warns = tuple(w for w in self.warnings if not w.startswith(_DRIFT_WARNING))
+        return replace(self, target_period_s=target, rate_s_per_day=rate,
+                       rate_sigma_s_per_day=rate_sigma, rate_drift_s_per_day=drift,
+                       rate_drift_sigma_s_per_day=drift_sigma,
+                       warnings=warns + _drift_warning(drift, drift_sigma))
+
     def report_dict(self) -> dict[str, Any]:
         """The JSON report (keys ``BEATS_REPORT_KEYS``; plain floats, None for null)."""
         return {"ticks": self.ticks, "rejected": self.rejected, "missing": self.missing,
@@ -181,6 +196,35 @@ class BeatAnalysis:
                 "rate_drift_sigma_s_per_day": self.rate_drift_sigma_s_per_day,
                 "timing_scatter_ms": 1e3 * self.timing_scatter_s,
                 "warnings": list(self.warnings)}
+
+
+def _rates(index: IntArray, times: FloatArray, beat_s: float, beat_sigma_s: float,
+           target: float | None) -> tuple[float | None, float | None, float | None, float | None]:
+    """Rate and its σ against ``target`` (None without one), and the drift of the last third
+    against the first (against ``target``, or the recording's own period), with its σ."""
+    drift = drift_sigma = None
+    ref = target if target is not None else 2.0 * beat_s
+    third = (times[-1] - times[0]) / 3.0
+    parts = [times <= times[0] + third, times >= times[-1] - third]
+    if all(int(p.sum()) >= MIN_TICKS for p in parts):
+        fits = [fit_beats(index[p], times[p]) for p in parts]
+        rates = [_rate(2 * f.beat_s, ref) for f in fits]
+        drift = rates[1] - rates[0]
+        drift_sigma = math.hypot(*(_rate_sigma(f.beat_s, f.beat_sigma_s, ref) for f in fits))
+    if target is None:
+        return None, None, drift, drift_sigma
+    return (_rate(2.0 * beat_s, target), _rate_sigma(beat_s, beat_sigma_s, target), drift,
+            drift_sigma)
+
+
+_DRIFT_WARNING = "the rate changed by"
+
+
+def _drift_warning(drift: float | None, drift_sigma: float | None) -> tuple[str, ...]:
+    if drift is not None and drift_sigma is not None and abs(drift) > max(3 * drift_sigma, 1.0):
+        return (f"{_DRIFT_WARNING} {drift:+.1f} s/day between the first and last third of the "
+                "recording",)
+    return ()
 
 
 def _reject_off_beat(index: IntArray, times: FloatArray) -> NDArray[np.bool_]:
@@ -240,19 +284,7 @@ def analyse_detection(det: TickDetection, target_period_s: float | None = None) 
         raise DesignError("recording", f"the ticks are too weak or too irregular to time: their "
                                        f"scatter about a steady beat is {1e3 * fit.scatter_s:.3g}"
                                        f" ms, over 1 % of the {b:.4g} s beat")
-    drift = drift_sigma = None
-    ref = target if target is not None else period
-    third = (times[-1] - times[0]) / 3.0
-    parts = [times <= times[0] + third, times >= times[-1] - third]
-    if all(int(p.sum()) >= MIN_TICKS for p in parts):
-        fits = [fit_beats(index[p], times[p]) for p in parts]
-        rates = [_rate(2 * f.beat_s, ref) for f in fits]
-        drift = rates[1] - rates[0]
-        drift_sigma = math.hypot(*(_rate_sigma(f.beat_s, f.beat_sigma_s, ref) for f in fits))
-    rate = rate_sigma = None
-    if target is not None:
-        rate = _rate(period, target)
-        rate_sigma = _rate_sigma(b, fit.beat_sigma_s, target)
+    rate, rate_sigma, drift, drift_sigma = _rates(index, times, b, fit.beat_sigma_s, target)
     warns: list[str] = []
     if missing:
         warns.append(f"{missing} tick{'s were' if missing > 1 else ' was'} missing; the gaps "
@@ -269,9 +301,7 @@ def analyse_detection(det: TickDetection, target_period_s: float | None = None) 
                      "poorly defined (noise, or a weak signal)")
     if len(times) < 30:
         warns.append(f"only {len(times)} ticks: record longer for a firmer rate")
-    if drift is not None and drift_sigma is not None and abs(drift) > max(3 * drift_sigma, 1.0):
-        warns.append(f"the rate changed by {drift:+.1f} s/day between the first and last third "
-                     "of the recording")
+    warns.extend(_drift_warning(drift, drift_sigma))
     return BeatAnalysis(
         ticks=len(times), rejected=len(rejected_times), missing=missing,
         duration_s=det.duration_s, sample_rate_hz=det.rate_hz, beat_s=b,

@@ -26,7 +26,7 @@ from PySide6.QtWidgets import (
 from app.document.document import Document
 from app.form import design_edits
 from app.form.field_rows import ChoiceRow, NumberRow, Row, TextRow
-from app.form.labels import FIELD_LABELS, field_label
+from app.form.field_text import choice_label, help_of, label_of, window_message
 from app.form.part_editor import PartsSection
 from app.form.pivot_control import PivotControl
 from app.form.suspension_fields import SuspensionSection
@@ -34,10 +34,10 @@ from app.form.units import UnitSystem
 from core import Design, DesignError, Result, design_to_dict
 from core.fileformat import get_value
 
-__all__ = ["DesignPanel", "FIELD_LABELS", "field_label"]
+__all__ = ["DesignPanel"]
 
 
-_TARGETS = [("period", "Period"), ("beats_per_hour", "Beats per hour"), ("none", "No target")]
+_TARGETS = [(k, choice_label("target", k)) for k in ("period", "beats_per_hour", "none")]
 _UNSET_TEXT = {"quality_factor": "no damping", "pitch_m": "no nut"}
 _OPTIONAL_DEFAULTS = {"quality_factor": 10000.0, "pitch_m": 0.001, "g_m_s2": 9.80665,
                       "hole_diameter_m": 0.008}
@@ -122,8 +122,12 @@ class DesignPanel(PartsSection, SuspensionSection, QScrollArea):
         return row
 
     def _add(self, form: QFormLayout, row: Row, registry: dict[str, Row] | None) -> None:
-        label = QLabel(field_label(row.path))
+        label = QLabel(label_of(row.path, self._kind_at(row.path)))
         label.setBuddy(row.editor())
+        tip = help_of(row.path, self._kind_at(row.path))
+        if tip:
+            label.setToolTip(tip)
+            row.set_help(tip)
         form.addRow(label, row)
         (self._rows if registry is None else registry)[row.path] = row
 
@@ -203,6 +207,24 @@ class DesignPanel(PartsSection, SuspensionSection, QScrollArea):
                 return label
         return QWidget()
 
+    def _kind_at(self, path: str) -> str | None:
+        """The kind of the part a ``parts[i]`` path points into (None elsewhere)."""
+        if not path.startswith("parts["):
+            return None
+        try:
+            index = int(path[6:path.index("]")])
+        except ValueError:
+            return None
+        parts = self.document.design.parts
+        return parts[index].kind if 0 <= index < len(parts) else None
+
+    def _label(self, path: str) -> str:
+        return label_of(path, self._kind_at(path))
+
+    def refusal_text(self, error: DesignError) -> str:
+        """The window's sentence for ``error`` in the form's words and display units."""
+        return window_message(error, self._system, self._kind_at(error.field))
+
     # ================================================================== public
     def all_rows(self) -> dict[str, Row]:
         """Every row now in the form, by field path."""
@@ -231,6 +253,7 @@ class DesignPanel(PartsSection, SuspensionSection, QScrollArea):
             if isinstance(row, NumberRow):
                 row.set_unit_system(system)
         self.pivot_control.set_unit_system(system)
+        self._show_spring_figures(self._result)
 
     # ================================================================== widgets → model
     def _apply(self, make: Callable[[], Design], path: str, text: str,
@@ -254,24 +277,24 @@ class DesignPanel(PartsSection, SuspensionSection, QScrollArea):
 
     def _commit_number(self, path: str, si: float, stepping: bool) -> None:
         ok = self._apply(lambda: design_edits.set_value(self.document.design, path, si),
-                         path, f"Change {field_label(path).lower()}", stepping)
+                         path, f"Change {self._label(path).lower()}", stepping)
         if not ok and stepping and self.document.design != self.document.committed_design:
             # A run of steps that ended on a refused value keeps its last valid value.
             row = self.all_rows().get(path)
             message = row.problem() if row is not None else ""
-            self.document.commit(self.document.design, f"Change {field_label(path).lower()}",
+            self.document.commit(self.document.design, f"Change {self._label(path).lower()}",
                                  path, True)
             if row is not None and message:
                 row.mark(message)
 
     def _clear_optional(self, path: str) -> None:
         self._apply(lambda: design_edits.set_value(self.document.design, path, None), path,
-                    f"Clear {field_label(path).lower()}")
+                    f"Clear {self._label(path).lower()}")
 
     def _enable_optional(self, path: str) -> None:
         value = self._optional_start(path)
         self._apply(lambda: design_edits.set_value(self.document.design, path, value), path,
-                    f"Set {field_label(path).lower()}")
+                    f"Set {self._label(path).lower()}")
 
     def _optional_start(self, path: str) -> float:
         """A starting value when an optional field is ticked: the core's current figure where
@@ -299,7 +322,7 @@ class DesignPanel(PartsSection, SuspensionSection, QScrollArea):
 
     def _on_chosen(self, path: str, key: str) -> None:
         design = self.document.design
-        text = f"Change {field_label(path).lower()}"
+        text = f"Change {self._label(path).lower()}"
         if self._chosen_here(path, key):
             return
         if path == "suspension.kind":
@@ -333,9 +356,7 @@ class DesignPanel(PartsSection, SuspensionSection, QScrollArea):
     def show_refusal(self, path: str, error: DesignError) -> None:
         """Mark the row of ``path`` with why ``error`` refused it (naming another field when
         the problem lies there)."""
-        message = error.reason
-        if error.field != path and error.field not in ("design", "file"):
-            message = f"{field_label(error.field)}: {error.reason}"
+        message = window_message(error, self._system, self._kind_at(error.field))
         self._last_refusal = (path, message)
         row = self.all_rows().get(path) or self.all_rows().get(error.field)
         if row is not None:

@@ -21,8 +21,8 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from app.form.number_field import NumberField, format_number
-from app.form.units import UnitSystem, field_unit
+from app.form.number_field import NumberField
+from app.form.units import UnitSystem, field_unit, format_sig
 
 __all__ = ["Row", "NumberRow", "ChoiceRow", "TextRow"]
 
@@ -49,6 +49,14 @@ class Row(QWidget):
 
     def editor(self) -> QWidget:  # pragma: no cover - every row overrides it
         raise NotImplementedError
+
+    def set_help(self, text: str) -> None:
+        """The field table's help sentence, as the tooltip of the row's entry."""
+        widget = self.editor()
+        if isinstance(widget, NumberField):
+            widget.set_help(text)
+        else:
+            widget.setToolTip(text)
 
     def mark(self, message: str) -> None:
         """Outline the entry in red and say why below it; "" clears the mark."""
@@ -91,6 +99,7 @@ class NumberRow(Row):
                  placeholder: str = "", parent: QWidget | None = None) -> None:
         super().__init__(path, parent)
         self.check: QCheckBox | None = None
+        self._core_shown: tuple[float | None, str] = (None, "")
         if optional is not None:
             self.check = QCheckBox(optional, self)
             self.check.toggled.connect(self._on_toggled)
@@ -116,6 +125,7 @@ class NumberRow(Row):
         """Show the value in ``system``'s unit."""
         self.field.set_unit(field_unit(self.path, system))
         self._update_unit_label()
+        self.show_core_value(*self._core_shown)
 
     def _update_unit_label(self) -> None:
         self.unit_label.setText(self.field.unit().text)
@@ -135,11 +145,11 @@ class NumberRow(Row):
     def show_core_value(self, si: float | None, fallback: str) -> None:
         """While the optional field is unticked, show the core's own value greyed out (or
         ``fallback`` text when it has none)."""
+        self._core_shown = (si, fallback)
         if si is None:
             text = fallback
         else:
-            unit = self.field.unit()
-            text = format_number(unit.to_display(si), min(unit.decimals, 4))
+            text = format_sig(self.field.unit().to_display(si), 5)
         if self.field.lineEdit().placeholderText() != text:
             self.field.lineEdit().setPlaceholderText(text)
 

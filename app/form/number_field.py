@@ -16,7 +16,7 @@ from PySide6.QtCore import QSize, Qt, QTimer, Signal
 from PySide6.QtGui import QFocusEvent, QKeyEvent, QMouseEvent, QValidator, QWheelEvent
 from PySide6.QtWidgets import QAbstractSpinBox, QWidget
 
-from app.form.units import FieldUnit
+from app.form.units import FieldUnit, format_sig
 
 __all__ = ["NumberField", "NumberTextError", "parse_number", "format_number"]
 
@@ -82,6 +82,7 @@ class NumberField(QAbstractSpinBox):
         self._live: float | None = None      # value being stepped, SI
         self._stepping = False
         self._problem = ""
+        self._help = ""
         self._settle = QTimer(self)
         self._settle.setSingleShot(True)
         self._settle.setInterval(SETTLE_MS)
@@ -127,7 +128,16 @@ class NumberField(QAbstractSpinBox):
         return self._stepping and self._live is not None and self._live == si
 
     def _format(self, si: float) -> str:
-        return format_number(self._unit.to_display(si), self._unit.decimals)
+        shown = self._unit.to_display(si)
+        if shown and abs(shown) < 10.0 ** (2 - self._unit.decimals):
+            return format_sig(shown, 6)  # a small value keeps its figures (0.000227 lb)
+        return format_number(shown, self._unit.decimals)
+
+    def set_help(self, text: str) -> None:
+        """The tooltip shown while the entry is fine (a refusal sentence replaces it)."""
+        self._help = text
+        if not self._problem:
+            self.setToolTip(text)
 
     # ------------------------------------------------------------------ problems
     def problem(self) -> str:
@@ -140,7 +150,7 @@ class NumberField(QAbstractSpinBox):
             return
         self._problem = message
         self.setProperty("invalid", bool(message))
-        self.setToolTip(message)
+        self.setToolTip(message or self._help)
         self.style().unpolish(self)
         self.style().polish(self)
         self.problemChanged.emit(message)

@@ -24,6 +24,7 @@ from app.form import design_edits
 from app.form.field_rows import Row
 from app.form.material_edits import material_choices
 from core import Design, DesignError, Result
+from core.fields import choice_label
 
 if TYPE_CHECKING:
     from app.document.document import Document
@@ -31,8 +32,8 @@ if TYPE_CHECKING:
 
 __all__ = ["PartsSection"]
 
-_SHAPES = [("lens", "Lens"), ("disc", "Disc"), ("cylinder", "Cylinder"), ("sphere", "Sphere")]
-_MOUNTS = [("clamp", "Clamped to a rod"), ("on_sleeve", "Resting on a sleeve")]
+_SHAPES = [(k, choice_label("shape", k)) for k in ("lens", "disc", "cylinder", "sphere")]
+_MOUNTS = [(k, choice_label("mount", k)) for k in ("clamp", "on_sleeve")]
 
 
 class PartsSection:
@@ -135,10 +136,7 @@ class PartsSection:
         self._number(form, f"{at}.mass_kg", optional="Given", registry=reg)
     def _build_bob_rows(self, design: Design, part: Any, at: str) -> None:
         form, reg = self.part_form, self._part_rows
-        mount = self._choice(form, f"{at}.mount.kind", _MOUNTS, reg)
-        mount_label = form.labelForField(mount)
-        if isinstance(mount_label, QLabel):
-            mount_label.setText("Mounting")
+        self._choice(form, f"{at}.mount.kind", _MOUNTS, reg)
         names = (design_edits.rod_names(design) if part.mount.kind == "clamp"
                  else design_edits.sleeve_names(design))
         self._choice(form, f"{at}.mount.on", _names(names), reg)

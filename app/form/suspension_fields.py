@@ -18,9 +18,10 @@ from PySide6.QtWidgets import QFormLayout, QLabel, QWidget
 from app.form import mounting_edits
 from app.form.field_rows import ChoiceRow, Row
 from app.form.material_edits import material_choices
+from app.form.units import UnitSystem, figure_text
 from core import Design, DesignError, Result
 from core.blades import SPRING_STRESS_CAUTION
-from core.fields import CHOICES, field_spec
+from core.fields import CHOICES, choice_label, field_spec
 
 if TYPE_CHECKING:
     from app.document.document import Document
@@ -28,7 +29,7 @@ if TYPE_CHECKING:
 
 __all__ = ["SuspensionSection", "KeyedChoiceRow"]
 
-_SUSPENSIONS = [("knife_edge", "Knife edge"), ("spring", "Suspension spring")]
+_SUSPENSIONS = [(k, choice_label("suspension", k)) for k in ("knife_edge", "spring")]
 _BLADE_KEYS = ("count", "material", "width_m", "thickness_m", "free_length_m")
 GIVEN_PATH = "suspension.given"
 _SHORT_CAUTION = ("Ideal elastic figures with no safety factor; Penduline does not certify a "
@@ -64,6 +65,7 @@ class SuspensionSection:
         _part_rows: dict[str, Row]
         _selected: int
         _result: Result | None
+        _system: UnitSystem
         part_form: QFormLayout
 
         def _group(self, title: str) -> QFormLayout: ...
@@ -168,17 +170,21 @@ class SuspensionSection:
         if result is None or result.design != design or design.suspension.kind != "spring":
             self.spring_figures.setText("")
             return
-        k = result.suspension_stiffness_n_m_per_rad
-        text = f"Stiffness used: {k:.4g} N·m/rad"
+        system = self._system
+        k = figure_text(result.suspension_stiffness_n_m_per_rad, "N·m/rad", system)
+        text = f"Stiffness used: {k}"
         if design.suspension.blades is not None:
-            text = f"Stiffness from the blades: {k:.4g} N·m/rad (under the pendulum's weight)"
+            text = f"Stiffness from the blades: {k} (under the pendulum's weight)"
         s = result.blade_stresses
         if s is not None:
             m = design.material(design.suspension.blades.material)  # type: ignore[union-attr]
-            text += (f"\nClamp stress at the semi-arc: {s.peak_pa / 1e6:.3g} MPa peak "
-                     f"({s.tension_pa / 1e6:.3g} tension + {s.bending_pa / 1e6:.3g} bending)")
+            peak, tension, bending = (figure_text(x / 1e6, "MPa", system, 3)
+                                      for x in (s.peak_pa, s.tension_pa, s.bending_pa))
+            text += f"\nClamp stress at the semi-arc: {peak} peak ({tension} tension + " \
+                    f"{bending} bending)"
             if m.strength_pa is not None:
-                text += f"\nStrength of {m.label.lower()}: {m.strength_pa / 1e6:.4g} MPa"
+                text += (f"\nStrength of {m.label.lower()}: "
+                         f"{figure_text(m.strength_pa / 1e6, 'MPa', system)}")
         self.spring_figures.setText(text)
 
     # ------------------------------------------------------------------ widgets → model

@@ -14,7 +14,7 @@ from typing import Any
 from PySide6.QtCore import QSignalBlocker
 from PySide6.QtWidgets import QTreeWidget, QTreeWidgetItem
 
-from app.form.units import UnitSystem, readout_unit
+from app.form.units import UnitSystem, format_sig, readout_unit
 from app.readout.readout_format import format_value
 from core import Result
 
@@ -81,15 +81,17 @@ def budget_rows(result: Result, system: UnitSystem
         shown = range_text(low, high, None if centre is None else unit.convert(centre))
         gap = "" if unit.text == "°" else " "
         rows.append((f"{line.cause} {shown}{gap}{unit.text}",
-                     f"{line.spread_s_per_day:+.2f}", "s/day"))
-        tips.append(f"{line.cause} from {low:.6g} to {high:.6g} {unit.text}: rate "
-                    f"{line.rate_at_low_s_per_day:+.2f} s/day at the low end, "
-                    f"{line.rate_at_high_s_per_day:+.2f} s/day at the high end")
-    rows.append(("Worst case (sum)", f"{result.budget.worst_case_s_per_day:.2f}",
-                 "s/day"))
+                     format_value(abs(line.spread_s_per_day), "{:.2f}"), "s/day"))
+        tips.append(f"Spread of the rate, end to end, while the {line.cause.lower()} goes from "
+                    f"{format_sig(low, 6)} to {format_sig(high, 6)} {unit.text}: rate "
+                    f"{format_value(line.rate_at_low_s_per_day, '{:+.2f}')} s/day at the low "
+                    f"end, {format_value(line.rate_at_high_s_per_day, '{:+.2f}')} s/day at the "
+                    "high end")
+    rows.append(("Worst case (sum)",
+                 format_value(result.budget.worst_case_s_per_day, "{:.2f}"), "s/day"))
     tips.append("Sum of the spreads above: every cause pushing the same way at once")
-    rows.append(("Root sum square", f"{result.budget.root_sum_square_s_per_day:.2f}",
-                 "s/day"))
+    rows.append(("Root sum square",
+                 format_value(result.budget.root_sum_square_s_per_day, "{:.2f}"), "s/day"))
     tips.append("Square root of the sum of the squared spreads: the causes taken as "
                 "independent of each other")
     return rows, tips

@@ -9,7 +9,10 @@ from __future__ import annotations
 
 from typing import Any
 
-__all__ = ["SECTIONS", "DESCRIPTIONS", "describe", "format_value", "rows"]
+from app.form.units import format_sig
+
+__all__ = ["SECTIONS", "DESCRIPTIONS", "describe", "format_value", "no_signed_zero", "rows",
+           "format_sig"]
 
 Row = tuple[str, str, str, str]
 
@@ -29,15 +32,16 @@ SECTIONS: tuple[tuple[str, tuple[Row, ...]], ...] = (
         ("trim_s_per_day_per_g", "1 g trim at tray", "s/day", "{:+.4f}"),
         ("trim_height_m", "Trim tray height", "m", "{:.4f}"),
         ("trim_null_height_m", "Trim has no effect at", "m", "{:.6f}"),
-        ("temperature_coefficient_s_per_day_per_k", "Temperature", "s/day/K", "{:+.4f}"),
-        ("pressure_coefficient_s_per_day_per_hpa", "Air pressure", "s/day/hPa", "{:+.5f}"),
+        ("temperature_coefficient_s_per_day_per_k", "Temperature coefficient", "s/day/K",
+         "{:+.4f}"),
+        ("pressure_coefficient_s_per_day_per_hpa", "Pressure coefficient", "s/day/hPa", "{:+.5f}"),
         ("arc_s_per_day_per_0_1_deg", "Semi-arc +0.1°", "s/day", "{:+.3f}"),
         ("elevation_s_per_day_per_100_m", "Site 100 m higher", "s/day", "{:+.3f}"),
     )),
     ("Mass properties", (
-        ("mass_kg", "Mass", "kg", "{:.4f}"),
+        ("mass_kg", "Mass", "kg", "sig6"),
         ("centre_of_mass_m", "Centre of mass", "m", "{:.6f}"),
-        ("inertia_pivot_kg_m2", "Inertia about pivot", "kg·m²", "{:.6f}"),
+        ("inertia_pivot_kg_m2", "Inertia about pivot", "kg·m²", "sig6"),
         ("centre_of_oscillation_m", "Centre of oscillation", "m", "{:.6f}"),
         ("radius_of_gyration_m", "Radius of gyration", "m", "{:.6f}"),
         ("shortest_period_pivot_m", "Shortest-period pivot", "m", "{:.6f}"),
@@ -53,8 +57,8 @@ SECTIONS: tuple[tuple[str, tuple[Row, ...]], ...] = (
         ("static_load_n", "Static weight", "N", "{:.2f}"),
         ("max_pivot_load_n", "Peak pivot load", "N", "{:.2f}"),
         ("pivot_load_ratio", "Peak / static load", "", "{:.5f}"),
-        ("energy_j", "Swing energy", "J", "{:.5g}"),
-        ("drive_power_w", "Drive power to sustain", "W", "{:.4g}"),
+        ("energy_j", "Swing energy", "J", "sig5"),
+        ("drive_power_w", "Drive power to sustain", "W", "sig4"),
         ("cycles_to_half_amplitude", "Cycles to half arc", "", "{:.1f}"),
         ("time_to_half_amplitude_s", "Time to half arc", "s", "{:.1f}"),
         ("foucault_turn_h", "Foucault full turn", "h", "{:.3f}"),
@@ -72,9 +76,11 @@ DESCRIPTIONS: dict[str, str] = {
     "circular_error_s_per_day": "Seconds a day lost to the size of the swing, compared with "
                                 "very small arcs",
     "amplitude_deg": "Working semi-arc: how far the pendulum swings each side of vertical",
-    "bob_sensitivity_s_per_day_per_mm": "Rate change when the bob is lowered by 1 mm",
+    "bob_sensitivity_s_per_day_per_mm": "Rate change when the bob is lowered by 1 mm (a "
+                                        "linear sensitivity: the slope at the design, scaled)",
     "rating_nut_s_per_day_per_turn": "Rate change for one turn of the rating nut raising "
-                                     "the bob",
+                                     "the bob (a linear sensitivity: the slope at the design, "
+                                     "scaled to one turn)",
     "trim_s_per_day_per_g": "Rate change for 1 g of trim weight added at the trim tray "
                             "height",
     "trim_height_m": "Height below the pivot at which the trim-weight figure is quoted",
@@ -129,13 +135,29 @@ def describe(key: str) -> str:
 
 
 def format_value(value: Any, fmt: str) -> str:
-    """``value`` formatted with ``fmt``; an em dash where it is not defined."""
+    """``value`` formatted with ``fmt``; an em dash where it is not defined.
+
+    ``fmt`` is a format string (``"{:+.2f}"``) or ``"sigN"``/``"+sigN"``: N significant
+    figures, so a small clock's inertia (0.000227 kg·m²) keeps its digits. A value that rounds
+    to zero shows as plain 0 (never “-0.00” or “+0.000”).
+    """
     if value is None:
         return "—"
     try:
-        return fmt.format(value)
+        if fmt.lstrip("+").startswith("sig"):
+            return format_sig(float(value), int(fmt.lstrip("+")[3:]), fmt.startswith("+"))
+        text = fmt.format(value)
     except (TypeError, ValueError):
         return str(value)
+    return no_signed_zero(text)
+
+
+def no_signed_zero(text: str) -> str:
+    """“-0.00”, “+0.000”, “−0” → the same digits without a sign."""
+    body = text.lstrip("+-−")
+    if body != text and body and not body.strip("0.") and body[0].isdigit():
+        return body
+    return text
 
 
 def rows(report: dict[str, Any]) -> list[tuple[str, str, str, str]]:

@@ -14,8 +14,8 @@ from __future__ import annotations
 
 from typing import Any
 
-from PySide6.QtCore import QSize, Qt, Signal
-from PySide6.QtGui import QBrush, QColor, QFont, QShowEvent
+from PySide6.QtCore import QSize, Qt, QTimer, Signal
+from PySide6.QtGui import QBrush, QColor, QFont, QResizeEvent, QShowEvent
 from PySide6.QtWidgets import (
     QHBoxLayout,
     QHeaderView,
@@ -28,16 +28,18 @@ from PySide6.QtWidgets import (
 )
 
 from app.form.number_field import NumberField
-from app.form.units import UnitSystem, field_unit, readout_unit
+from app.form.units import ReadoutUnit, UnitSystem, field_unit, readout_unit
 from app.readout.cells import TreeCells, budget_rows, convert, delta_text
+from app.readout.figure_words import figure_label
 from app.readout.notes import NotesPane
 from app.readout.readout_format import SECTIONS, describe, format_value
+from app.readout.sections import arrange_sections, mark_section, toggle_section
 from core import Result
 from core.tuning import BudgetRanges
 
 __all__ = ["ReadoutPanel", "BUDGET_RANGES"]
 
-BUDGET_SECTION = "Rate budget"
+BUDGET_SECTION = "Rate budget: spread of the rate, end to end"
 BUDGET_RANGES: tuple[tuple[str, str, str], ...] = (
     ("temperature_k", "Temperature range ±",
      "Half-width of the temperature range the budget spans, about the site's temperature"),
@@ -75,6 +77,8 @@ class ReadoutPanel(QWidget):
         self._result: Result | None = None
         self._baseline: Result | None = None
         self._items: dict[str, tuple[QTreeWidgetItem, str, str]] = {}
+        self._labels: dict[str, str] = {}
+        self._purpose = ""
         self._budget_items: list[QTreeWidgetItem] = []
         self.budget_fields: dict[str, NumberField] = {}
         self._range_items: dict[str, QTreeWidgetItem] = {}
@@ -106,6 +110,10 @@ class ReadoutPanel(QWidget):
         self.splitter.setStretchFactor(1, 1)
         self.splitter.setSizes([560, 220])
         layout.addWidget(self.splitter, 1)
+        self._fit_timer = QTimer(self)
+        self._fit_timer.setSingleShot(True)
+        self._fit_timer.setInterval(0)
+        self._fit_timer.timeout.connect(lambda: self.notes.fit_in(self.splitter))
 
     # ================================================================== building
     def _build_trim_row(self) -> QHBoxLayout:
@@ -172,22 +180,26 @@ class ReadoutPanel(QWidget):
         bold.setBold(True)
         section_brush = QBrush(QColor("#e9e5dc"))
         labels = []
+        self._heads: dict[str, QTreeWidgetItem] = {}
         for section, rows in SECTIONS:
             head = self._section_item(tree, section, bold, section_brush)
+            self._heads[section] = head
             labels.append(section)
+            if section == "Tuning":  # the budget follows the sensitivities it adds up
+                self._add_budget_section(tree, bold, section_brush, labels)
             for key, label, unit, fmt in rows:
                 item = QTreeWidgetItem(head, [label, "", unit, ""])
                 item.setTextAlignment(1, _RIGHT)
                 item.setTextAlignment(3, _RIGHT)
                 item.setToolTip(0, describe(key))
                 self._items[key] = (item, unit, fmt)
+                self._labels[key] = label
                 labels.append(label)
-        self._budget_head = self._section_item(tree, BUDGET_SECTION, bold, section_brush)
-        labels.append(BUDGET_SECTION)
-        for key, label, tip in BUDGET_RANGES:
-            labels.append(label)
-            self._add_range_entry(tree, key, label, tip)
+                labels.extend(figure_label(key, label, None, system)[0] for system in UnitSystem)
         tree.expandAll()
+        tree.itemExpanded.connect(lambda head: mark_section(self._cells, head))
+        tree.itemCollapsed.connect(lambda head: mark_section(self._cells, head))
+        tree.itemClicked.connect(toggle_section)
         tree.setColumnHidden(3, True)
         # The label column fits the longest label, measured once here (these labels never
         # change; measuring on every update was what made live drags slow): the tree may not
@@ -199,6 +211,15 @@ class ReadoutPanel(QWidget):
         self._tree_extra = tree.verticalScrollBar().sizeHint().width() + 2 * tree.frameWidth()
         tree.setMinimumWidth(self._tree_width(tree, delta=False))
         return tree
+
+    def _add_budget_section(self, tree: QTreeWidget, bold: QFont, brush: QBrush,
+                            labels: list[str]) -> None:
+        """The rate budget's head (placed after Tuning) and its range entries."""
+        self._budget_head = self._section_item(tree, BUDGET_SECTION, bold, brush)
+        self._heads[BUDGET_SECTION] = self._budget_head
+        for key, label, tip in BUDGET_RANGES:
+            labels.append(label)
+            self._add_range_entry(tree, key, label, tip)
 
     def _add_range_entry(self, tree: QTreeWidget, key: str, label: str, tip: str) -> None:
         """A row of the budget section holding the entry of one range's half-width (in the
@@ -231,6 +252,11 @@ class ReadoutPanel(QWidget):
         for key in self._range_items:
             self._fit_range_row(key)
         super().showEvent(event)
+        self.fit_notes()
+
+    def resizeEvent(self, event: QResizeEvent) -> None:  # Qt override
+        super().resizeEvent(event)
+        self.fit_notes()
 
     def _tree_width(self, tree: QTreeWidget, delta: bool) -> int:
         """Least tree width that shows every label whole, px."""
@@ -287,6 +313,10 @@ class ReadoutPanel(QWidget):
         cells: list[tuple[QTreeWidgetItem, int, str]] = []
         for key, (item, unit, fmt) in self._items.items():
             shown = readout_unit(unit, self._system)
+            label, factor = figure_label(key, self._labels[key], result, self._system)
+            if factor != 1.0:
+                shown = ReadoutUnit(shown.text, shown.scale * factor)
+            cells.append((item, 0, label))
             cells.append((item, 1, format_value(convert(report.get(key), shown), fmt)))
             cells.append((item, 2, shown.text))
             cells.append((item, 3, "" if base is None else delta_text(report.get(key),
@@ -295,6 +325,13 @@ class ReadoutPanel(QWidget):
         self._cells.write(cells)
         self._show_budget(result)
         self._show_notes(result)
+        design = result.design
+        exhibit = (design.purpose == "exhibit" or design.exhibit is not None
+                   or design.target.target_period_s is None)  # no target: no time to keep
+        purpose = "exhibit" if exhibit else "clock"
+        if purpose != self._purpose:  # kept otherwise: what the person opened or closed
+            self._purpose = purpose
+            arrange_sections(self.tree, self._heads, self._cells, purpose)
         if not self.trim_field.hasFocus():
             self.trim_field.set_value(result.sensitivities.trim_height_m)
         self.show_compute_problem("")
@@ -314,8 +351,6 @@ class ReadoutPanel(QWidget):
                 continue
             self._cells.write([(item, column, text) for column, text in enumerate(rows[i])])
             self._cells.set_tip(item, tips[i])
-        if not self._budget_head.isExpanded():
-            self._budget_head.setExpanded(True)
 
     def _fit_budget_labels(self, labels: list[str]) -> None:
         """Widen the label column when a budget line's label (range and unit) needs it; the
@@ -333,6 +368,12 @@ class ReadoutPanel(QWidget):
         if (result.warnings, result.cautions) != self._notes_shown:
             self._notes_shown = (result.warnings, result.cautions)
             self.notes.show_notes(result.warnings, result.cautions)
+            self.fit_notes()
+
+    def fit_notes(self) -> None:
+        """Give the notes only the height they need (at most half the column), once the
+        layout has settled (their height depends on the width)."""
+        self._fit_timer.start()
 
     def show_compute_problem(self, message: str) -> None:
         """Say that the design shown cannot be computed (figures stay at the last good one)."""

@@ -130,7 +130,7 @@ def _views(result: Result, system: UnitSystem) -> tuple[QtWidgets.QGraphicsView,
         view.show_result(result)
         view.pose_for_export()
     preview._info.setVisible(False)  # it names the animation's state
-    preview._legend.setVisible(False)  # the caption names the paths
+    # the preview draws no legend over the drawing (its key is in the text under it)
     plan._info.setVisible(False)  # the key figures say it
     app.processEvents()
     return preview, plan

@@ -30,7 +30,9 @@ __all__ = ["MOTION_COLUMNS", "PERIOD_CURVE_COLUMNS", "PARTS_COLUMNS", "motion_cs
 
 MOTION_COLUMNS = ("time_s", "exact_angle_deg", "linear_angle_deg", "angular_velocity_deg_s",
                   "difference_deg")
-PERIOD_CURVE_COLUMNS = ("amplitude_deg", "period_s", "circular_error_s_per_day")
+# The semi-arc column is named as the window and the field table name it (core.fields:
+# swing.amplitude_deg is labelled "Semi-arc"), its unit in the name like every column.
+PERIOD_CURVE_COLUMNS = ("semi_arc_deg", "period_s", "circular_error_s_per_day")
 PARTS_COLUMNS = ("name", "kind", "shape", "material", "mass_kg", "centre_m", "top_m",
                  "bottom_m", "width_m", "inner_width_m")
 

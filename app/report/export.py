@@ -22,6 +22,7 @@ from typing import TYPE_CHECKING, Any, cast
 if TYPE_CHECKING:
     from PySide6.QtWidgets import QWidget
 
+    from app.form.units import UnitSystem
     from app.views.base import View
     from core import Result
 
@@ -35,11 +36,15 @@ _app_ref: Any = None  # keeps the application alive while exporting
 
 
 def _choose_platform() -> None:
-    """Use the offscreen platform when there is no display to draw on (Linux)."""
+    """Use the offscreen platform when there is no display to draw on (Linux), or when the
+    X11 platform's system libraries are missing (an export needs no display)."""
+    from app.launch import missing_xcb_libraries
+
     if os.environ.get("QT_QPA_PLATFORM"):
         return
-    if sys.platform.startswith("linux") and not (os.environ.get("DISPLAY")
-                                                 or os.environ.get("WAYLAND_DISPLAY")):
+    if sys.platform.startswith("linux") and (
+            not (os.environ.get("DISPLAY") or os.environ.get("WAYLAND_DISPLAY"))
+            or missing_xcb_libraries()):
         os.environ["QT_QPA_PLATFORM"] = "offscreen"
 
 
@@ -145,10 +150,11 @@ def export_all(file: str | os.PathLike[str], out_dir: str | os.PathLike[str]) ->
     return export_result(result, out_dir, Path(file).name)
 
 
-def export_result(result: Result, out_dir: str | os.PathLike[str], source_name: str
-                  ) -> list[Path]:
+def export_result(result: Result, out_dir: str | os.PathLike[str], source_name: str,
+                  system: UnitSystem | None = None) -> list[Path]:
     """Write every plot (PNG and SVG), the CSVs and the PDF report of ``result`` into
-    ``out_dir``; ``source_name`` is the design's file name shown in the report.
+    ``out_dir``; ``source_name`` is the design's file name shown in the report, ``system``
+    the units of the report (metric unless given).
 
     Raises
     ------
@@ -156,7 +162,7 @@ def export_result(result: Result, out_dir: str | os.PathLike[str], source_name: 
         ``field="out"`` when the output cannot be written.
     """
     from app.report import csv_data as data_export
-    from app.report.pdf import widget_image
+    from app.report.pdf import widget_picture
 
     app = ensure_application()
     out = _output_dir(out_dir)
@@ -171,20 +177,22 @@ def export_result(result: Result, out_dir: str | os.PathLike[str], source_name: 
                                ("parts.csv", data_export.parts_csv)):
             written.append(_write_text(out / name, make_csv(result)))
         _lay_out(widgets, result, app, REPORT_PLOT_SIZE_PX)
-        images = {w.title: widget_image(cast("QWidget", w)) for w in widgets}
+        images = {w.title: widget_picture(cast("QWidget", w)) for w in widgets}
         captions = {w.title: w.caption for w in widgets}
         written.append(_write(out / "report.pdf", partial(
-            _write_report, result, images, captions, source_name)))
+            _write_report, result, images, captions, source_name, system)))
     finally:
         _dispose(widgets)
     return written
 
 
 def _write_report(result: Result, images: dict[str, Any], captions: dict[str, str],
-                  source_name: str, path: Path) -> Path:
+                  source_name: str, system: UnitSystem | None, path: Path) -> Path:
+    from app.form.units import UnitSystem
     from app.report.pdf import write_report_pdf
 
-    return write_report_pdf(result, path, images, captions=captions, source_name=source_name)
+    return write_report_pdf(result, path, images, captions=captions, source_name=source_name,
+                            system=system or UnitSystem.METRIC)
 
 
 def _dispose(widgets: list[View]) -> None:

@@ -3,7 +3,9 @@
 Contents: title, design name, file, date; the safety cautions (boxed, first page); the readout
 (``app.readout.readout_format.SECTIONS``) with the sensitivities; the design (site, suspension,
 swing, target, every part with its fields and units); the rate budget; the exhibit figures with
-the load caution; warnings; every plot as an image. All numbers come from ``core.Result``.
+the load caution; a one-line summary of the rating log; warnings; every plot, drawn as vectors.
+All numbers come from ``core.Result``; words and units are the window's
+(:mod:`app.report.pdf_tables`).
 """
 
 from __future__ import annotations
@@ -11,26 +13,28 @@ from __future__ import annotations
 import datetime as _dt
 import html
 import os
-from collections.abc import Mapping, Sequence
+from collections.abc import Mapping
 from pathlib import Path
-from typing import Any
 
 from PySide6 import QtCore, QtGui, QtWidgets
 
-from app.readout.readout_format import SECTIONS, format_value
+from app.form.units import UnitSystem
 from app.report.atomic_files import atomic_path
+from app.report.pdf_tables import (
+    box,
+    budget_table,
+    design_tables,
+    exhibit_table,
+    rating_summary,
+    readout_table,
+)
 from core import Result
 from core.analysis import LOAD_CAUTION, SPRING_CAUTION
-from core.fileformat import design_to_dict
 
-__all__ = ["write_report_pdf", "report_html", "widget_image", "field_label"]
+__all__ = ["write_report_pdf", "report_html", "widget_image", "widget_picture"]
 
 REPORT_IMAGE_WIDTH_PX = 2000
 BODY_FONT_PT = 9.0
-
-# (suffix of a file key, unit shown); longest suffixes first.
-_UNIT_SUFFIXES = (("_n_m_per_rad", "N·m/rad"), ("_m_s2", "m/s²"), ("_hpa", "hPa"),
-                  ("_deg", "°"), ("_kg", "kg"), ("_c", "°C"), ("_m", "m"), ("_s", "s"))
 
 _STYLE = """
 body { font-family: 'DejaVu Sans', sans-serif; color: #22262a; }
@@ -45,150 +49,19 @@ tr.section td { background-color: #f0f3f6; font-weight: bold; color: #1d3f5c; }
 p.caption { color: #444; margin-top: 2px; }
 """
 
-_EXHIBIT_SECTION = "Swing and loads"
-_EXHIBIT_EXTRA = (
-    ("peak_angular_velocity_rad_s", "Peak angular velocity", "rad/s", "{:.5g}"),
-    ("release_axial_load_n", "Load along pendulum at release", "N", "{:.2f}"),
-    ("lowest_point_m", "Lowest point below pivot (hanging)", "m", "{:.4f}"),
-    ("energy_lost_per_cycle_j", "Energy lost per period", "J", "{:.4g}"),
-)
-
-
-def field_label(key: str) -> tuple[str, str]:
-    """A file key's plain label and unit: ``"outer_diameter_m"`` → ``("outer diameter", "m")``."""
-    for suffix, unit in _UNIT_SUFFIXES:
-        if key.endswith(suffix):
-            return key[: -len(suffix)].replace("_", " "), unit
-    return key.replace("_", " "), ""
-
-
-_NONE_TEXT = {"mass_kg": "from material", "g_m_s2": "from latitude and elevation",
-              "period_s": "none", "beats_per_hour": "none", "pitch_m": "no rating nut",
-              "quality_factor": "no damping"}
-
-
-def _value_text(key: str, value: Any) -> str:
-    if value is None:
-        return _NONE_TEXT.get(key, "—")
-    if isinstance(value, float):
-        return f"{value:.6g}"
-    return html.escape(str(value))
-
-
-def _fields_text(d: Mapping[str, Any], skip: Sequence[str] = ()) -> str:
-    """``label value unit`` for every key of a part or section, separated by middle dots."""
-    pieces = []
-    for key, value in d.items():
-        if key in skip:
-            continue
-        if isinstance(value, Mapping):
-            pieces.append(f"{html.escape(key)}: {_fields_text(value)}")
-            continue
-        label, unit = field_label(key)
-        shown = _value_text(key, value)
-        unit_text = "" if not unit or value is None else unit if unit == "°" else f" {unit}"
-        pieces.append(f"{html.escape(label)} <b>{shown}</b>{unit_text}")
-    return " · ".join(pieces)
-
-
-def _table(header: Sequence[str], rows: Sequence[Sequence[str]], widths: Sequence[int] = ()
-           ) -> str:
-    cols = "".join(f"<th width='{w}%'>{h}</th>" if widths else f"<th>{h}</th>"
-                   for h, w in zip(header, widths or [0] * len(header), strict=False))
-    body = "".join("<tr>" + "".join(cell for cell in row) + "</tr>" for row in rows)
-    return (f"<table class='grid' width='100%' cellspacing='0' cellpadding='3'>"
-            f"<tr>{cols}</tr>{body}</table>")
-
-
-def _td(text: str, num: bool = False) -> str:
-    return f"<td class='num'>{text}</td>" if num else f"<td>{text}</td>"
-
-
-def _box(title: str, items: Sequence[str], colour: str, fill: str) -> str:
-    """A framed box (a one-cell table) holding a title and a bulleted list."""
-    bullets = "".join(f"<li>{html.escape(t)}</li>" for t in items)
-    return (f"<table width='100%' cellspacing='0' cellpadding='8' border='2' "
-            f"style='border-color:{colour}; border-style:solid; background-color:{fill};'>"
-            f"<tr><td><b style='color:{colour}'>{html.escape(title)}</b>"
-            f"<ul style='margin-top:3px; margin-bottom:0px'>{bullets}</ul></td></tr></table>")
-
-
-def _readout_html(report: Mapping[str, Any], spring: bool) -> str:
-    """The readout table; the stiffness sensitivity only for a spring suspension."""
-    rows: list[list[str]] = []
-    for section, items in SECTIONS:
-        if section == _EXHIBIT_SECTION:
-            continue  # shown with the exhibit figures, beside the load caution
-        rows.append([f"<td colspan='3'>{html.escape(section)}</td>"])
-        extra = ([("stiffness_s_per_day_per_n_m_per_rad", "Spring stiffness +1 N·m/rad",
-                   "s/day", "{:+.4f}")] if section == "Tuning" and spring else [])
-        for key, label, unit, fmt in list(items) + extra:
-            rows.append([_td(html.escape(label)), _td(format_value(report.get(key), fmt), True),
-                         _td(html.escape(unit))])
-    table = _table(["Figure", "Value", "Unit"], rows, (55, 28, 17))
-    return table.replace("<tr><td colspan='3'>", "<tr class='section'><td colspan='3'>")
-
-
-def _design_html(result: Result) -> str:
-    d = design_to_dict(result.design)
-    rows = [[_td("Reference temperature"),
-             _td(f"<b>{d['reference_temperature_c']:.6g}</b> °C")]]
-    for key in ("site", "suspension", "swing", "target", "rating_nut"):
-        rows.append([_td(html.escape(key.replace("_", " ").capitalize())),
-                     _td(_fields_text(d[key]))])
-    general = _table(["Section", "Fields"], rows, (22, 78))
-    masses = {b.name: b for b in result.bodies}
-    part_rows = []
-    for p in d["parts"]:
-        body = masses.get(p["name"])
-        kind = p["kind"] + (f" ({p['shape']})" if "shape" in p else "")
-        part_rows.append([
-            _td(f"<b>{html.escape(p['name'])}</b>"), _td(html.escape(kind)),
-            _td(_fields_text(p, skip=("kind", "name", "shape"))),
-            _td("—" if body is None else f"{body.mass_kg:.5g}", True),
-            _td("—" if body is None else f"{body.centre_m:.5g}", True)])
-    parts = _table(["Part", "Kind", "Fields (file values, reference temperature)",
-                    "Mass kg", "Centre m"], part_rows, (11, 12, 55, 11, 11))
-    return (general + "<p class='caption'>Parts, top to bottom as listed in the design; mass "
-            "and centre as hung at the site temperature (used in every figure).</p>" + parts)
-
-
-def _budget_html(report: Mapping[str, Any]) -> str:
-    rows = []
-    for line in report["rate_budget"]:
-        rows.append([_td(html.escape(line["cause"])),
-                     _td(f"{line['low']:.5g} to {line['high']:.5g} {html.escape(line['unit'])}"),
-                     _td(f"{line['rate_at_low_s_per_day']:+.3f}", True),
-                     _td(f"{line['rate_at_high_s_per_day']:+.3f}", True),
-                     _td(f"{line['spread_s_per_day']:+.3f}", True)])
-    rows.append([_td("<b>Total, worst case</b>"), _td(""), _td(""), _td(""),
-                 _td(f"<b>{report['rate_budget_worst_case_s_per_day']:.3f}</b>", True)])
-    rows.append([_td("<b>Total, root sum square</b>"), _td(""), _td(""), _td(""),
-                 _td(f"<b>{report['rate_budget_rss_s_per_day']:.3f}</b>", True)])
-    note = ("<p class='caption'>Rate (s/day) at each end of each range, the other conditions "
-            "held at the site's values; against the target period, or against the design's "
-            "own period when no target is set.</p>")
-    return _table(["Cause", "Range", "Rate at low", "Rate at high", "Spread s/day"], rows,
-                  (22, 30, 16, 16, 16)) + note
-
-
-def _exhibit_html(report: Mapping[str, Any]) -> str:
-    items = [i for s, rows in SECTIONS if s == _EXHIBIT_SECTION for i in rows]
-    items += list(_EXHIBIT_EXTRA)
-    rows = [[_td(html.escape(label)), _td(format_value(report.get(key), fmt), True),
-             _td(html.escape(unit))] for key, label, unit, fmt in items]
-    table = _table(["Figure", "Value", "Unit"], rows, (55, 28, 17))
-    return table + _box("Loads", [LOAD_CAUTION], "#9a5b00", "#fff6e0")
+_PLOT_MARK = "penduline-drawing:"  # a paragraph holding only this and an index becomes a plot
 
 
 def _plots_html(images: Mapping[str, str], captions: Mapping[str, str]) -> str:
-    """Two plots a page, each under its title with its caption."""
+    """Two plots a page, each under its title with its caption; ``images`` maps a title to
+    an image URL, or to ``penduline-drawing:N`` for a drawing placed as vectors."""
     parts = []
     for i, (title, url) in enumerate(images.items()):
         brk = " style='page-break-before: always'" if i % 2 == 0 else ""
         caption = captions.get(title, "")
-        parts.append(f"<h2{brk}>Figure {i + 1}. {html.escape(title)}</h2>"
-                     f"<p align='center'><img src='{url}' width='{_IMAGE_WIDTH_HTML}'></p>"
+        figure = (f"<p align='center'>{url}</p>" if url.startswith(_PLOT_MARK) else
+                  f"<p align='center'><img src='{url}' width='{_IMAGE_WIDTH_HTML}'></p>")
+        parts.append(f"<h2{brk}>Figure {i + 1}. {html.escape(title)}</h2>" + figure
                      + (f"<p class='caption'>{html.escape(caption)}</p>" if caption else ""))
     return "".join(parts)
 
@@ -197,9 +70,10 @@ _IMAGE_WIDTH_HTML = 560  # document px (96 per inch): two plots and captions a p
 
 
 def report_html(result: Result, *, source_name: str | None, date: _dt.date,
-                image_urls: Mapping[str, str], captions: Mapping[str, str] | None = None) -> str:
-    """The report as Qt rich-text HTML; ``image_urls`` maps plot titles to resource URLs."""
-    report = result.report_dict()
+                image_urls: Mapping[str, str], captions: Mapping[str, str] | None = None,
+                system: UnitSystem = UnitSystem.METRIC) -> str:
+    """The report as Qt rich-text HTML in ``system``'s units; ``image_urls`` maps plot titles
+    to resource URLs (or to ``penduline-drawing:N`` marks for drawings placed as vectors)."""
     cautions = list(dict.fromkeys([LOAD_CAUTION, SPRING_CAUTION, *result.cautions]))
     meta = " · ".join(x for x in (f"File: {html.escape(source_name)}" if source_name else "",
                                   f"Date: {date.isoformat()}", "Penduline") if x)
@@ -209,15 +83,74 @@ def report_html(result: Result, *, source_name: str | None, date: _dt.date,
         f"<html><head><style>{_STYLE}</style></head><body>",
         f"<h1>{html.escape(result.design.name)}</h1><p class='meta'>Pendulum design report · "
         f"{meta}</p>",
-        _box("Cautions — read before building or hanging", cautions, "#b3261e", "#fdecea"),
-        "<h2>Readout and sensitivities</h2>",
-        _readout_html(report, result.design.suspension.kind == "spring"),
-        "<h2>Design</h2>", _design_html(result),
-        "<h2>Rate budget</h2>", _budget_html(report),
-        "<h2>Exhibit figures</h2>", _exhibit_html(report),
+        box("Cautions — read before building or hanging", cautions, "#b3261e", "#fdecea"),
+        "<h2>Readout and sensitivities</h2>", readout_table(result, system),
+        "<h2>Design</h2>", design_tables(result, system), rating_summary(result),
+        "<h2>Rate budget</h2>", budget_table(result, system),
+        "<h2>Exhibit figures</h2>", exhibit_table(result, system),
         "<h2>Warnings</h2>", warnings,
         _plots_html(image_urls, captions or {}),
         "</body></html>"])
+
+
+def widget_picture(widget: QtWidgets.QWidget) -> QtGui.QPicture:
+    """Record ``widget`` (laid out and sized) as drawing commands: placed in the PDF, lines
+    and text stay vectors (sharp at any zoom, and small)."""
+    picture = QtGui.QPicture()
+    size = widget.size()
+    painter = QtGui.QPainter(picture)
+    try:
+        painter.setRenderHint(QtGui.QPainter.RenderHint.Antialiasing, True)
+        painter.setRenderHint(QtGui.QPainter.RenderHint.TextAntialiasing, True)
+        painter.fillRect(QtCore.QRectF(0, 0, size.width(), size.height()),
+                         QtGui.QColor("white"))
+        if isinstance(widget, QtWidgets.QGraphicsView):
+            target = QtCore.QRectF(0, 0, size.width(), size.height())
+            QtWidgets.QGraphicsView.render(widget, painter, target, widget.viewport().rect())
+        else:
+            widget.render(painter, QtCore.QPoint())
+    finally:
+        painter.end()
+    picture.setBoundingRect(QtCore.QRect(0, 0, size.width(), size.height()))
+    return picture
+
+
+_PLOT_OBJECT = QtGui.QTextFormat.ObjectTypes.UserObject + 1
+_PLOT_INDEX = QtGui.QTextFormat.Property.UserProperty + 1
+
+
+class _PlotObject(QtGui.QPyTextObject):
+    """Draws a recorded plot (:class:`QPicture`) inline, scaled to the report's width."""
+
+    def __init__(self, parent: QtCore.QObject, pictures: list[QtGui.QPicture]) -> None:
+        super().__init__(parent)
+        self._pictures = pictures
+
+    def intrinsicSize(self, doc: QtGui.QTextDocument, pos: int,  # Qt override
+                      fmt: QtGui.QTextFormat) -> QtCore.QSizeF:
+        box = self._pictures[int(fmt.property(_PLOT_INDEX))].boundingRect()
+        # Laid out for print, the document measures in the printer's pixels.
+        device = doc.documentLayout().paintDevice()
+        width = _IMAGE_WIDTH_HTML * (device.logicalDpiX() / 96.0 if device else 1.0)
+        return QtCore.QSizeF(width, width * box.height() / max(1, box.width()))
+
+    def drawObject(self, painter: QtGui.QPainter,  # Qt override
+                   rect: QtCore.QRectF | QtCore.QRect,
+                   doc: QtGui.QTextDocument, pos: int, fmt: QtGui.QTextFormat) -> None:
+        picture = self._pictures[int(fmt.property(_PLOT_INDEX))]
+        box = picture.boundingRect()
+        rect = QtCore.QRectF(rect)
+        painter.save()
+        painter.translate(rect.topLeft())
+        # A picture replayed on a device of another resolution is scaled by the ratio of the
+        # two; undo that, so the drawing fills ``rect`` exactly.
+        device = painter.device()
+        dpi_x = picture.logicalDpiX() / device.logicalDpiX() if device else 1.0
+        dpi_y = picture.logicalDpiY() / device.logicalDpiY() if device else 1.0
+        painter.scale(dpi_x * rect.width() / max(1, box.width()),
+                      dpi_y * rect.height() / max(1, box.height()))
+        painter.drawPicture(0, 0, picture)
+        painter.restore()
 
 
 def widget_image(widget: QtWidgets.QWidget, width_px: int = REPORT_IMAGE_WIDTH_PX
@@ -248,37 +181,57 @@ def widget_image(widget: QtWidgets.QWidget, width_px: int = REPORT_IMAGE_WIDTH_P
     return image
 
 
-def _document(result: Result, images: Mapping[str, QtGui.QImage], captions: Mapping[str, str],
-              source_name: str | None, date: _dt.date) -> QtGui.QTextDocument:
+def _document(result: Result, images: Mapping[str, QtGui.QImage | QtGui.QPicture],
+              captions: Mapping[str, str], source_name: str | None, date: _dt.date,
+              system: UnitSystem) -> QtGui.QTextDocument:
     doc = QtGui.QTextDocument()
     font = QtGui.QFont("DejaVu Sans")
     font.setPointSizeF(BODY_FONT_PT)
     doc.setDefaultFont(font)
     urls = {}
+    pictures: list[QtGui.QPicture] = []
     for i, (title, image) in enumerate(images.items()):
+        if isinstance(image, QtGui.QPicture):
+            urls[title] = f"{_PLOT_MARK}{len(pictures)}"
+            pictures.append(image)
+            continue
         url = f"penduline-plot://{i}.png"
         doc.addResource(QtGui.QTextDocument.ResourceType.ImageResource, QtCore.QUrl(url), image)
         urls[title] = url
+    handler = _PlotObject(doc, pictures)
+    doc.documentLayout().registerHandler(_PLOT_OBJECT, handler)
     doc.setHtml(report_html(result, source_name=source_name, date=date, image_urls=urls,
-                            captions=captions))
+                            captions=captions, system=system))
+    for i in range(len(pictures)):
+        cursor = doc.find(f"{_PLOT_MARK}{i}")
+        if cursor.isNull():
+            continue
+        fmt = QtGui.QTextCharFormat()
+        fmt.setObjectType(_PLOT_OBJECT)
+        fmt.setProperty(_PLOT_INDEX, i)
+        cursor.insertText("\ufffc", fmt)
     return doc
 
 
 def write_report_pdf(result: Result, path: str | os.PathLike[str],
-                     images: Mapping[str, QtGui.QImage], *,
+                     images: Mapping[str, QtGui.QImage | QtGui.QPicture], *,
                      captions: Mapping[str, str] | None = None, source_name: str | None = None,
-                     date: _dt.date | None = None) -> Path:
+                     date: _dt.date | None = None,
+                     system: UnitSystem = UnitSystem.METRIC) -> Path:
     """Write the A4 PDF report of ``result`` to ``path`` (atomically); returns the path.
 
     Parameters
     ----------
     result : core.Result
-    images : plot title → image (e.g. from :func:`widget_image`), in report order.
+    images : plot title → a drawing (from :func:`widget_picture`: placed as vectors) or an
+        image (from :func:`widget_image`), in report order.
     captions : plot title → a sentence shown under the plot.
     source_name : design file name shown in the header.
     date : report date (default today).
+    system : the units the figures are given in.
     """
-    doc = _document(result, images, captions or {}, source_name, date or _dt.date.today())
+    doc = _document(result, images, captions or {}, source_name, date or _dt.date.today(),
+                    system)
     with atomic_path(path) as tmp:
         writer = QtGui.QPdfWriter(str(tmp))
         writer.setPageSize(QtGui.QPageSize(QtGui.QPageSize.PageSizeId.A4))

@@ -16,13 +16,14 @@ from app.views.period_curve import PeriodCurvePlot
 from app.views.phase import PhasePlot
 from app.views.plan_view import PlanView
 from app.views.rating_view import RatingView
+from app.views.recording_view import RecordingView
 from app.views.sweep import SweepPlot
 from app.views.swing_preview import SwingPreview
 
 __all__ = ["VIEWS", "PLOT_CLASSES", "make_views", "report_views"]
 
 VIEWS: tuple[type[View], ...] = (MotionPlot, PhasePlot, PeriodCurvePlot, SwingPreview,
-                                 PlanView, SweepPlot, RatingView)
+                                 PlanView, SweepPlot, RatingView, RecordingView)
 """Every view, in the order of the tabs and of the grid."""
 
 PLOT_CLASSES = (MotionPlot, PhasePlot, PeriodCurvePlot)

@@ -2,8 +2,14 @@
 styled axes, a legend below them, plain curves and a second y axis, fewer ticks in a small
 pane.
 
-Curves are plain, non-antialiased ``PlotCurveItem`` objects (the fastest pyqtgraph draws),
-made once and updated with ``setData``.
+Curves are plain ``PlotCurveItem`` objects made once and updated with ``setData``; only the
+few thick main curves are antialiased (their stair steps show; the thin ones' do not), and
+those only at rest: while results stream in (a live drag) they are drawn plain, and smoothed
+again once the stream stops, so the drag keeps its speed (``benchmarks/gui_bench.py``).
+
+The legend names only what is on view: a view calls :meth:`ChartView._name_in_legend` with
+the entries it shows after framing (a curve hidden under another, or out of the range, is
+dropped or said to coincide).
 """
 
 from __future__ import annotations
@@ -20,7 +26,8 @@ from app import theme
 from app.views.axes import degrees, pen, style_axis
 from app.views.base import ResultView
 
-__all__ = ["ChartView", "SMALL_PANE_TICK_DENSITY", "abs_max", "y_extent", "fill_slots"]
+__all__ = ["ChartView", "SMALL_PANE_TICK_DENSITY", "abs_max", "y_extent", "fill_slots",
+           "on_view"]
 
 LEGEND_MARGIN_PX = 120  # room taken by the left and right axes, px
 SMALL_PANE_PX = 460  # narrower or lower than this, axes ask for fewer ticks
@@ -42,6 +49,8 @@ class ChartView(ResultView):
                                     labelTextColor=theme.INK, labelTextSize="8pt")
         item.layout.addItem(self.legend, 4, 1)
         item.layout.setRowSpacing(3, 2)
+        self._legend_key: tuple[tuple[int, str], ...] = ()
+        self._smooth: list[pg.PlotCurveItem] = []
 
     def resizeEvent(self, event: Any) -> None:  # Qt override
         """Fit the legend's columns and the tick density to the size."""
@@ -77,9 +86,12 @@ class ChartView(ResultView):
         return self._tick_density
 
     def _curve(self, color: str, width: float = 1.5, name: str | None = None, z: float = 0.0,
-               view: pg.ViewBox | None = None) -> pg.PlotCurveItem:
-        """A plain curve added once; later updated with ``setData``."""
-        curve = pg.PlotCurveItem(pen=pen(color, width), antialias=False)
+               view: pg.ViewBox | None = None, smooth: bool = False) -> pg.PlotCurveItem:
+        """A plain curve added once; later updated with ``setData``. ``smooth``: antialiased
+        (for the few thick main curves)."""
+        curve = pg.PlotCurveItem(pen=pen(color, width), antialias=smooth)
+        if smooth:
+            self._smooth.append(curve)
         curve.setZValue(z)
         if view is None:
             self.getPlotItem().addItem(curve)
@@ -87,7 +99,49 @@ class ChartView(ResultView):
             view.addItem(curve)
         if name is not None:
             self.legend.addItem(curve, name)
+            self._legend_key += ((id(curve), name),)
         return curve
+
+    def _result_arrived(self, result: Any, baseline: Any) -> None:
+        """As the base; in a stream, the smooth curves are drawn plain until it stops."""
+        super()._result_arrived(result, baseline)
+        if self._streaming:
+            self._set_smooth(False)
+
+    def _stream_ended(self) -> None:
+        self._set_smooth(True)
+        super()._stream_ended()
+
+    def _set_smooth(self, on: bool) -> None:
+        if not self._alive():
+            return
+        for curve in self._smooth:
+            if curve.opts["antialias"] != on:
+                curve.opts["antialias"] = on
+                curve.update()
+
+    @property
+    def smooth(self) -> bool:
+        """True while the main curves are antialiased (at rest; not during a live drag)."""
+        return all(curve.opts["antialias"] for curve in self._smooth)
+
+    def _name_in_legend(self, entries: list[tuple[pg.PlotCurveItem, str]]) -> None:
+        """Make the legend list exactly ``entries`` (curve, name), in order, then the
+        baseline when one is shown; nothing is redone when they are already listed."""
+        key = tuple((id(curve), name) for curve, name in entries)
+        if key == self._legend_key:
+            return
+        self._legend_key = key
+        self.legend.clear()
+        for curve, name in entries:
+            self.legend.addItem(curve, name)
+        ghost = self.__dict__.get("ghost")
+        if self._ghost_named and ghost is not None:
+            self.legend.addItem(ghost, "Baseline")
+
+    def legend_names(self) -> list[str]:
+        """The names the legend lists now, in order."""
+        return [label.text for _sample, label in self.legend.items]
 
     def _right_view(self, label: str, color: str) -> pg.ViewBox:
         """A second y axis on the right, sharing x, drawn in the plot's own layout (so it is
@@ -124,6 +178,16 @@ def abs_max(values: Any) -> float:
     a = np.abs(np.asarray(values, dtype=float))
     a = a[np.isfinite(a)]
     return float(a.max()) if a.size else 0.0
+
+
+def on_view(x: Any, y: Any, x_range: tuple[float, float], y_range: tuple[float, float]) -> bool:
+    """True when some point of the curve (x, y) lies inside the ranges."""
+    if x is None or y is None or len(x) == 0:
+        return False
+    xs, ys = np.asarray(x, dtype=float), np.asarray(y, dtype=float)
+    inside = ((xs >= x_range[0]) & (xs <= x_range[1]) & (ys >= y_range[0])
+              & (ys <= y_range[1]))
+    return bool(np.any(inside))
 
 
 def y_extent(values: np.ndarray) -> tuple[float, float]:

@@ -11,7 +11,9 @@ from app.views.axes import degrees
 from app.views.chart import ChartView, abs_max
 from core import Result
 
-__all__ = ["MotionPlot"]
+__all__ = ["MotionPlot", "COINCIDE_PX"]
+
+COINCIDE_PX = 1.5  # curves closer than this on screen are drawn as one
 
 
 class MotionPlot(ChartView):
@@ -29,7 +31,7 @@ class MotionPlot(ChartView):
         item.setLabel("bottom", "Time (s)")
         item.setLabel("left", "Angle (°)")
         self.ghost = self._curve(theme.GHOST, 2.0, None, z=-10)
-        self.exact = self._curve(theme.EXACT, 2.0, "Exact", z=2)
+        self.exact = self._curve(theme.EXACT, 2.0, "Exact", z=2, smooth=True)
         self.linear = self._curve(theme.LINEAR, 1.5, "Small-angle model", z=1)
         self.difference_view = self._right_view("Exact − small-angle (°)", theme.DIFFERENCE)
         self.difference = self._curve(theme.DIFFERENCE, 1.0, "Exact − small-angle",
@@ -54,6 +56,8 @@ class MotionPlot(ChartView):
         self.getPlotItem().showAxis("right", self._show_difference)
         if self.difference_action.isChecked() != self._show_difference:
             self.difference_action.setChecked(self._show_difference)
+        if self._result is not None:
+            self._frame()
 
     @property
     def shows_difference(self) -> bool:
@@ -94,5 +98,17 @@ class MotionPlot(ChartView):
         self._show_range(vb, 1, -1.06 * top, 1.06 * top)
         diff = abs_max(self.difference.getData()[1]) or 1e-9  # none: a flat line at 0
         self._show_range(self.difference_view, 1, -1.1 * diff, 1.1 * diff)
+        self._name_curves(diff, top)
+
+    def _name_curves(self, diff_deg: float, top_deg: float) -> None:
+        """The small-angle curve is said to coincide when it lies within a pixel or so of
+        the exact one (it is hidden under it); the difference is named while shown."""
+        height_px = max(float(self.getPlotItem().vb.height()), 100.0)
+        hidden = diff_deg <= COINCIDE_PX * (2.12 * top_deg) / height_px
+        entries = [(self.exact, "Exact"),
+                   (self.linear, "Small-angle model" + (" (coincides)" if hidden else ""))]
+        if self._show_difference:
+            entries.append((self.difference, "Exact − small-angle"))
+        self._name_in_legend(entries)
 
 

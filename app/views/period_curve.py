@@ -14,7 +14,7 @@ from app.views.chart import ChartView, y_extent
 from core import Result
 from core.analysis import PeriodCurve
 
-__all__ = ["PeriodCurvePlot", "PERIOD_QUANTITIES", "X_RANGES"]
+__all__ = ["PeriodCurvePlot", "PERIOD_QUANTITIES", "X_RANGES", "NO_TARGET_NOTE"]
 
 
 PERIOD_QUANTITIES: tuple[tuple[str, str, str], ...] = (
@@ -31,6 +31,9 @@ X_RANGES = ("near", "whole")
 X_RANGE_NAMES = {"near": "Near the working arc", "whole": "Whole range"}
 X_RANGE_SHORT_NAMES = {"near": "Near the arc", "whole": "To 180°"}  # in a small pane
 SHORT_NAMES_BELOW_PX = 420
+NOTE_COLOUR = "#6b7178"  # a plain remark, not a refusal
+NO_TARGET_NOTE = ("No rate without a target: set a target period or beats per hour\n"
+                  "in Target, or show the period or the circular error.")
 X_PADDING = 0.02  # of the x span, each side
 LABEL_RIGHT, LABEL_LEFT = (-0.04, 0.0), (1.04, 0.0)  # text anchors beside the marker line
 NEAR_FACTOR = 4.0  # "near the working arc": up to this many times the working semi-arc
@@ -54,9 +57,9 @@ class PeriodCurvePlot(ChartView):
         item.setLabel("bottom", "Semi-arc (°)")
         self.ghost = self._curve(theme.GHOST, 2.0, None, z=-10)
         # One curve per quantity; only the chosen one is shown (both hold the core's arrays).
-        self.period = self._curve(theme.EXACT, 2.0, None, z=2)
-        self.error = self._curve(theme.DIFFERENCE, 2.0, None, z=2)
-        self.rate = self._curve(theme.EXACT, 2.0, None, z=2)
+        self.period = self._curve(theme.EXACT, 2.0, None, z=2, smooth=True)
+        self.error = self._curve(theme.DIFFERENCE, 2.0, None, z=2, smooth=True)
+        self.rate = self._curve(theme.EXACT, 2.0, None, z=2, smooth=True)
         self.marker = pg.InfiniteLine(angle=90, movable=False,
                                       pen=pen(theme.MARKER, 1.0, Qt.PenStyle.DashLine))
         self.marker.setZValue(4)
@@ -74,6 +77,10 @@ class PeriodCurvePlot(ChartView):
                                             color=theme.MARKER,
                                             fill=pg.mkBrush(252, 251, 248, 225))
         self.marker_label.setZValue(7)
+        self.note = pg.TextItem("", color=NOTE_COLOUR, anchor=(0.5, 0.5))
+        self.note.setParentItem(item.vb)
+        self.note.setVisible(False)
+        item.vb.sigResized.connect(self._place_note)
         self._quantity = "period"
         self._x_range = "near"
         strip = self.control_bar()
@@ -174,14 +181,35 @@ class PeriodCurvePlot(ChartView):
         self.marker.setValue(amp)
         self.dot.setPos(amp, here)
         text = (f"{amp:.4g}°\n{result.period_s:.6f} s\n"
-                f"{result.circular_error_s_per_day:.3f} s/day")
+                f"{result.circular_error_s_per_day:.3f} s/day lost to the arc\n"
+                f"(against vanishing arcs)")
         self.marker_label.setFormat(text.replace("{", "{{").replace("}", "}}"))
         self.marker_label.valueChanged()
         self._show_ghost(self.ghost, None if baseline is None else
                    (baseline.period_curve.amplitude_deg, self._values(baseline.period_curve)))
+        self._explain(result)
         if self.follows_result:
             self._frame(result)
         self._settle()
+
+    def _explain(self, result: Result) -> None:
+        """Rate without a target: say so in the plot, and draw no axis values that mean
+        nothing."""
+        empty = self._quantity == "rate" and result.period_curve.rate_s_per_day is None
+        self.note.setText(NO_TARGET_NOTE if empty else "")
+        self.note.setVisible(empty)
+        self.marker.setVisible(not empty)
+        self.dot.setVisible(not empty)
+        self.getPlotItem().getAxis("left").setStyle(showValues=not empty)
+        self._place_note()
+
+    def _place_note(self) -> None:
+        rect = self.getPlotItem().vb.boundingRect()
+        self.note.setPos(rect.center())
+
+    def note_text(self) -> str:
+        """The remark in the plot (rate without a target), or ""."""
+        return self.note.textItem.toPlainText() if self.note.isVisible() else ""
 
     def _values(self, curve: PeriodCurve) -> np.ndarray:
         if self._quantity == "period":
@@ -215,11 +243,25 @@ class PeriodCurvePlot(ChartView):
         if not np.any(seen):
             return
         vb = self.getPlotItem().vb
-        self._show_range(vb, 0, -X_PADDING * top, (1.0 + X_PADDING) * top)
-        self._show_range(vb, 1, *y_extent(self._values(curve)[seen]))
+        x_lo, x_hi = -X_PADDING * top, (1.0 + X_PADDING) * top
+        self._show_range(vb, 0, x_lo, x_hi)
+        shown = [_on_x_range(amps, self._values(curve), x_hi)]
+        if self._baseline is not None:  # the pinned baseline stays on the scale
+            ghost = self._baseline.period_curve
+            shown.append(_on_x_range(np.asarray(ghost.amplitude_deg, dtype=float),
+                                     self._values(ghost), x_hi))
+        self._show_range(vb, 1, *y_extent(np.concatenate(shown)))
         side = LABEL_LEFT if result.amplitude_deg > 0.6 * top else LABEL_RIGHT
         self.marker_label.anchors = [side, side]
         self.marker_label.updatePosition()
+
+
+def _on_x_range(amps: np.ndarray, values: np.ndarray, x_hi: float) -> np.ndarray:
+    """The values drawn up to ``x_hi``: the samples there, and the line's height where it
+    leaves the view (the next sample lies beyond, often far higher)."""
+    inside = amps <= x_hi
+    edge = np.interp(x_hi, amps, values) if amps.size and x_hi < amps[-1] else np.nan
+    return np.append(values[inside], edge)
 
 
 def _rate_values(curve: PeriodCurve) -> np.ndarray:

@@ -9,26 +9,33 @@ from PySide6.QtWidgets import QCheckBox, QWidget
 
 from app import theme
 from app.views.axes import degrees
-from app.views.chart import ChartView, fill_slots
+from app.views.chart import ChartView, fill_slots, on_view
 from core import Result
 
 __all__ = ["PhasePlot"]
 
 
 class PhasePlot(ChartView):
-    """Angular velocity against angle: this swing's orbit, neighbouring semi-arcs, the
-    separatrix and orbits going over the top.
+    """Angular velocity against angle: this swing, neighbouring semi-arcs, the separatrix
+    and orbits going over the top.
 
-    The view frames this swing and its neighbours; "Show separatrix" frames ±180° and the
-    separatrix instead (a clock's ±2° orbit is then a small ellipse in the middle).
+    A damped swing is drawn as the motion itself (the core's θ and θ̇ from release: a
+    spiral, as tight as the damping is light); an undamped one as its closed orbit. The
+    view frames this swing and its neighbours — and, from a semi-arc of
+    ``WIDE_SWING_DEG``, the whole ±180° with the separatrix and the orbits over the top,
+    which then lie close by; "Show separatrix" frames ±180° and the separatrix for any
+    swing (a clock's ±2° orbit is then a small ellipse in the middle). The legend names only
+    the lines on view.
     """
 
     title = "Phase plane"
     slug = "phase"
-    caption = ("Angular velocity against angle: this swing's orbit, neighbouring semi-arcs "
-               "and the separatrix between swinging and going over the top.")
+    caption = ("Angular velocity against angle: this swing (with damping, the motion from "
+               "release), neighbouring semi-arcs and, where they reach the view, the "
+               "separatrix between swinging and going over the top.")
     NEIGHBOUR_SLOTS = 8
     OVER_THE_TOP_SLOTS = 4
+    WIDE_SWING_DEG = 90.0
 
     def __init__(self, parent: QWidget | None = None) -> None:
         super().__init__(parent)
@@ -36,7 +43,7 @@ class PhasePlot(ChartView):
         item.setLabel("bottom", "Angle (°)")
         item.setLabel("left", "Angular velocity (°/s)")
         self.ghost = self._curve(theme.GHOST, 2.0, None, z=-10)
-        self.current = self._curve(theme.EXACT, 2.5, "This swing", z=3)
+        self.current = self._curve(theme.EXACT, 2.5, "This swing", z=3, smooth=True)
         self.neighbours = [self._curve(theme.NEIGHBOUR, 1.0, "Other semi-arcs" if i == 0
                                        else None, z=1) for i in range(self.NEIGHBOUR_SLOTS)]
         self.separatrix = self._curve(theme.SEPARATRIX, 1.5, "Separatrix", z=2)
@@ -75,8 +82,7 @@ class PhasePlot(ChartView):
         """Draw ``result.phase`` in degrees and degrees per second."""
         self._result_arrived(result, baseline)
         phase = result.phase
-        self.current.setData(degrees(phase.current.angle_rad),
-                             degrees(phase.current.angular_velocity_rad_s))
+        self.current.setData(*self._this_swing(result))
         fill_slots(self.neighbours, phase.neighbours)
         if phase.separatrix is None:
             self.separatrix.setData([], [])
@@ -84,9 +90,7 @@ class PhasePlot(ChartView):
             self.separatrix.setData(degrees(phase.separatrix.angle_rad),
                                     degrees(phase.separatrix.angular_velocity_rad_s))
         fill_slots(self.over_the_top, phase.rotating)
-        self._show_ghost(self.ghost, None if baseline is None else
-                   (degrees(baseline.phase.current.angle_rad),
-                    degrees(baseline.phase.current.angular_velocity_rad_s)))
+        self._show_ghost(self.ghost, None if baseline is None else self._this_swing(baseline))
         if self.follows_result:
             self._frame(result)
         self._settle()
@@ -96,21 +100,57 @@ class PhasePlot(ChartView):
             self._frame(self._result)
             self._settle()
 
+    @staticmethod
+    def _damped(result: Result) -> bool:
+        return result.design.swing.quality_factor is not None
+
+    def _this_swing(self, result: Result) -> tuple[np.ndarray, np.ndarray]:
+        """This swing in ° and °/s: the damped motion from release, or the closed orbit."""
+        if self._damped(result):
+            m = result.motion
+            return degrees(m.angle_rad), degrees(m.angular_velocity_rad_s)
+        orbit = result.phase.current
+        return degrees(orbit.angle_rad), degrees(orbit.angular_velocity_rad_s)
+
     def _frame(self, result: Result) -> None:
-        """Frame this swing and its neighbours, or ±180° and the separatrix."""
+        """Frame this swing and its neighbours; or ±180° with the separatrix (asked for,
+        or a wide swing, which also brings the orbits over the top on view)."""
         phase = result.phase
-        orbits = (phase.current, *phase.neighbours)
-        if self._show_separatrix:
-            if phase.separatrix is not None:
-                orbits = (*orbits, phase.separatrix)
-            x = 180.0
-        else:
-            x = float(np.degrees(max(float(np.max(np.abs(o.angle_rad))) for o in orbits)))
-        y = float(np.degrees(max(float(np.max(np.abs(o.angular_velocity_rad_s)))
-                                 for o in orbits)))
-        x, y = x * (1.0 if self._show_separatrix else 1.08), y * 1.08
+        wide = result.amplitude_deg >= self.WIDE_SWING_DEG
+        whole = self._show_separatrix or wide
+        orbits = [phase.current, *phase.neighbours]
+        if whole and phase.separatrix is not None:
+            orbits.append(phase.separatrix)
+        if wide:
+            orbits.extend(phase.rotating)
+        xs = [degrees(o.angle_rad) for o in orbits]
+        ys = [degrees(o.angular_velocity_rad_s) for o in orbits]
+        extra = [self._this_swing(result)]
+        if self._baseline is not None:
+            extra.append(self._this_swing(self._baseline))
+        xs += [e[0] for e in extra]
+        ys += [e[1] for e in extra]
+        x = 180.0 if whole else 1.08 * max(float(np.max(np.abs(a))) for a in xs if a.size)
+        y = 1.08 * max(float(np.max(np.abs(a))) for a in ys if a.size)
         vb = self.getPlotItem().vb
         self._show_range(vb, 0, -x, x)
         self._show_range(vb, 1, -y, y)
+        self._name_curves(result, (-x, x), (-y, y))
+
+    def _name_curves(self, result: Result, x_range: tuple[float, float],
+                     y_range: tuple[float, float]) -> None:
+        """Name the lines on view: this swing (damped or its undamped orbit), the other
+        semi-arcs, and the separatrix and orbits over the top when they reach the view."""
+        entries = [(self.current, "This swing, damped" if self._damped(result)
+                    else "This swing")]
+        others = "Other semi-arcs" + (", undamped" if self._damped(result) else "")
+        for curves, name in ((self.neighbours, others),
+                             ([self.separatrix], "Separatrix"),
+                             (self.over_the_top, "Over the top")):
+            seen = next((c for c in curves
+                         if on_view(c.getData()[0], c.getData()[1], x_range, y_range)), None)
+            if seen is not None:
+                entries.append((seen, name))
+        self._name_in_legend(entries)
 
 

@@ -1,12 +1,12 @@
 """Marks on the swing preview's hanging axis: the centre of mass, the centre of oscillation and
-the shortest-period pivot, and a legend entry for the pivot.
+the shortest-period pivot.
 
 Each mark is a small symbol of fixed screen size and its own shape (not told apart by colour
-alone), named in the preview's legend. The marks are children of the drawing's group, so they
-swing with the body; the centre of oscillation and the shortest-period pivot sit beside the
-axis on short leaders, so that marks a few pixels apart on a small drawing stay apart. Their
-depths below the pivot are the core's figures (``Result``); nothing is computed here but a
-difference of two of them.
+alone), named in the key under the drawing by a like-shaped character. The marks are children
+of the drawing's group, so they swing with the body; the centre of oscillation and the
+shortest-period pivot sit beside the axis on short leaders, so that marks a few pixels apart on
+a small drawing stay apart. Their depths below the pivot are the core's figures (``Result``);
+nothing is computed here but a difference of two of them.
 """
 
 from __future__ import annotations
@@ -37,6 +37,7 @@ class Mark:
     pen: str
     brush: str
     beside_px: float = 0.0
+    glyph: str = ""
 
 
 def _centre_of_mass_symbol() -> QtGui.QPainterPath:
@@ -51,18 +52,6 @@ def _centre_of_mass_symbol() -> QtGui.QPainterPath:
     return path
 
 
-def _pivot_symbol() -> QtGui.QPainterPath:
-    """The pivot's bracket and dot, as drawn at the origin, for the legend's sample."""
-    path = QtGui.QPainterPath()
-    path.moveTo(-0.5, 0.1)
-    path.lineTo(0.5, 0.1)
-    for x in (-0.4, -0.15, 0.1, 0.35):
-        path.moveTo(x + 0.1, 0.1)
-        path.lineTo(x - 0.1, -0.15)
-    path.addEllipse(QtCore.QPointF(0.0, 0.1), 0.1, 0.1)
-    return path
-
-
 def _unit_symbol(symbol: str | QtGui.QPainterPath) -> QtGui.QPainterPath:
     """A symbol as a path in pyqtgraph's unit square."""
     return symbol if isinstance(symbol, QtGui.QPainterPath) else pg.graphicsItems.\
@@ -71,11 +60,11 @@ def _unit_symbol(symbol: str | QtGui.QPainterPath) -> QtGui.QPainterPath:
 
 MARKS: tuple[Mark, ...] = (
     Mark("centre_of_mass", "Centre of mass", _centre_of_mass_symbol(), 14.0,
-         theme.INK, theme.INK),
+         theme.INK, theme.INK, glyph="◐"),
     Mark("centre_of_oscillation", "Centre of oscillation", "d", 12.0,
-         theme.DIFFERENCE, "#f4e8f2", beside_px=20.0),
+         theme.DIFFERENCE, "#f4e8f2", beside_px=20.0, glyph="◇"),
     Mark("shortest_period_pivot", "Shortest-period pivot", "t1", 12.0,
-         theme.MARKER, "#e3f1ea", beside_px=-20.0),
+         theme.MARKER, "#e3f1ea", beside_px=-20.0, glyph="△"),
 )
 
 
@@ -117,21 +106,10 @@ class PivotMarks:
     Attributes
     ----------
     items : the drawn marks by key (their position is the point marked, m).
-    samples : the legend's samples by key (never drawn in the view).
     """
 
     def __init__(self) -> None:
-        self.items: dict[str, QtWidgets.QGraphicsPathItem] = {}
-        self.samples: dict[str, pg.ScatterPlotItem] = {}
-        for mark in MARKS:
-            self.items[mark.key] = _mark_item(mark)
-            self.samples[mark.key] = pg.ScatterPlotItem(
-                pxMode=True, symbol=mark.symbol, size=mark.size,
-                pen=pg.mkPen(mark.pen, width=1.6), brush=pg.mkBrush(mark.brush),
-                name=mark.label)
-        self.pivot_sample = pg.ScatterPlotItem(pxMode=True, symbol=_pivot_symbol(), size=22.0,
-                                               pen=pg.mkPen(theme.INK, width=1.4),
-                                               brush=pg.mkBrush(theme.INK), name="Pivot")
+        self.items = {mark.key: _mark_item(mark) for mark in MARKS}
         self._depths: dict[str, float | None] = {}
 
     def attach(self, group: QtWidgets.QGraphicsItem) -> None:
@@ -163,9 +141,13 @@ class PivotMarks:
         """Where each mark is drawn, m below the pivot, at rest (None: not shown)."""
         return dict(self._depths)
 
-    def legend_entries(self) -> list[tuple[pg.ScatterPlotItem, str]]:
-        """(sample item, text) for the legend: the pivot, then each mark shown."""
-        entries = [(self.pivot_sample, "Pivot")]
-        entries += [(self.samples[m.key], m.label) for m in MARKS
-                    if self._depths.get(m.key) is not None]
-        return entries
+    def key_names(self) -> list[str]:
+        """The names of the marks shown, in the key's order."""
+        return [m.label for m in MARKS if self._depths.get(m.key) is not None]
+
+    def key_html(self) -> str:
+        """The marks' part of the key under the drawing: " · " and, for each mark shown, its
+        character in its colour and its name ("" when none is shown)."""
+        parts = [f"<span style='color:{m.pen}'>{m.glyph}</span> {m.label.lower()}"
+                 for m in MARKS if self._depths.get(m.key) is not None]
+        return "".join(f" · {part}" for part in parts)

@@ -36,6 +36,7 @@ from app.views.sweep_fields import (
     SWEEP_INTERVAL_MS,
     SWEEP_POINTS,
     SweepField,
+    default_field,
     default_range,
     sweep_fields,
 )
@@ -235,13 +236,20 @@ class SweepPlot(QWidget):
         self._draw()
 
     def least_period_value(self) -> float | None:
-        """For the pivot sweep, the swept value of least period (None otherwise)."""
+        """For the pivot sweep, the swept value of least period when it is a real minimum
+        inside the range (both neighbours computed and longer); None otherwise (the least
+        at an end of the range, or next to a gap, says nothing about a minimum)."""
         if self.table is None or self.table.field != PIVOT:
             return None
         periods = np.asarray(self.table.period_s, dtype=float)
         if not np.any(np.isfinite(periods)):
             return None
-        return float(self.table.values[int(np.nanargmin(periods))])
+        i = int(np.nanargmin(periods))
+        if not 0 < i < len(periods) - 1:
+            return None
+        if not (periods[i - 1] > periods[i] < periods[i + 1]):  # NaN neighbours fail too
+            return None
+        return float(self.table.values[i])
 
     # ================================================================== internals
     def _update_fields(self, design: Design) -> None:
@@ -258,8 +266,8 @@ class SweepPlot(QWidget):
                                            f.path)
                 index = self.field_box.findData(self._path)
                 if index < 0:
-                    index = 0
-                    self._path = fields[0].path
+                    self._path = default_field(fields).path
+                    index = self.field_box.findData(self._path)
                     self._range_auto = True
                 self.field_box.setCurrentIndex(index)
         self.unit_label.setText(self.field().unit)

@@ -41,7 +41,7 @@ class SweepCanvas(ResultView):
         item = self.getPlotItem()
         for name in ("left", "bottom"):
             style_axis(item.getAxis(name))
-        self.curve = pg.PlotCurveItem(pen=pg.mkPen(theme.EXACT, width=2.0), antialias=False)
+        self.curve = pg.PlotCurveItem(pen=pg.mkPen(theme.EXACT, width=2.0), antialias=True)
         item.addItem(self.curve)
         self.marker = pg.InfiniteLine(angle=90, movable=False,
                                       pen=pg.mkPen(theme.MARKER, width=1.0,
@@ -125,8 +125,10 @@ class SweepCanvas(ResultView):
         self.least_dot.setPos(xs[i], ys[i])
         self.least_label.setPos(xs[i], ys[i])
         # Least period is the lowest point of the period curve and the highest of the rate:
-        # the label goes on the open side.
-        self.least_label.setAnchor((0.5, 1.3) if rate else (0.5, -0.3))
+        # the label goes on the open side, and leans inwards near either end of the range.
+        share = (xs[i] - xs[0]) / (xs[-1] - xs[0]) if xs[-1] != xs[0] else 0.5
+        across = 0.0 if share < 0.3 else 1.0 if share > 0.7 else 0.5
+        self.least_label.setAnchor((across, 1.3) if rate else (across, -0.3))
         self.least_label.setText(f"shortest period {table.period_s[i]:.6f} s "
                                  f"at {xs[i]:.4g} {unit}".rstrip())
 

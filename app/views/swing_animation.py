@@ -18,6 +18,7 @@ import time
 from typing import TYPE_CHECKING, Any, Protocol, cast
 
 import numpy as np
+import shiboken6
 from PySide6 import QtCore, QtGui
 
 from app.views.swing_drawing import Drawing
@@ -136,8 +137,9 @@ class SwingAnimation:
             self._catch_up()  # pause where the swing truly is now
             self._playing = False
             self._timer.stop()
-        with QtCore.QSignalBlocker(self._play_action):
-            self._play_action.setChecked(playing)
+        if shiboken6.isValid(self._play_action):  # gone once the view is closed and deleted
+            with QtCore.QSignalBlocker(self._play_action):
+                self._play_action.setChecked(playing)
         self._update_info()
         self.playingChanged.emit(playing)
 

@@ -11,7 +11,9 @@ from app.views.swing_animation import SPEED_LABELS, SPEEDS
 if TYPE_CHECKING:
     from app.views.swing_preview import SwingPreview
 
-__all__ = ["SwingPreviewControls"]
+__all__ = ["SwingPreviewControls", "LINE_WORDS"]
+
+LINE_WORDS = ("Line below pivot", "Line")  # the clearance line's check box: wide, narrow
 
 
 class SwingPreviewControls(QtWidgets.QWidget):
@@ -26,12 +28,19 @@ class SwingPreviewControls(QtWidgets.QWidget):
         self.speed_box = QtWidgets.QComboBox()
         for factor in SPEEDS:
             self.speed_box.addItem(SPEED_LABELS[factor], factor)
-        self.line_check = QtWidgets.QCheckBox("Line below pivot")
+        self.speed_box.setToolTip("Animation speed (1× is true speed)")
+        self.speed_label = QtWidgets.QLabel("Speed")
+        self.line_check = QtWidgets.QCheckBox(LINE_WORDS[0])
+        self.line_check.setToolTip("Show a horizontal line (floor, barrier) below the pivot "
+                                   "and the clearance of the swing above it")
         self.line_depth = QtWidgets.QDoubleSpinBox(suffix=" m", decimals=3, minimum=0.0,
                                                    maximum=1000.0, singleStep=0.05)
+        self.line_depth.setToolTip("Depth of the line below the pivot")
         self.line_depth.setEnabled(False)
+        self.line_depth.setVisible(False)  # shown with the line: the bar keeps its room
+        self.narrow = False
         layout = QtWidgets.QHBoxLayout(self)
-        for w in (self.play_button, QtWidgets.QLabel("Speed"), self.speed_box,
+        for w in (self.play_button, self.speed_label, self.speed_box,
                   self.line_check, self.line_depth):
             layout.addWidget(w)
         layout.addStretch(1)  # the preview's control bar puts its title before these
@@ -44,8 +53,17 @@ class SwingPreviewControls(QtWidgets.QWidget):
         preview.speedChanged.connect(self._on_speed_changed)
         preview.clearanceChanged.connect(self._on_clearance_changed)
 
+    def set_narrow(self, narrow: bool) -> None:
+        """Short words in a small pane (the grid): no "Speed" label, "Line" for the line."""
+        if narrow == self.narrow:
+            return
+        self.narrow = narrow
+        self.speed_label.setVisible(not narrow)
+        self.line_check.setText(LINE_WORDS[1 if narrow else 0])
+
     def _on_line_toggled(self, on: bool) -> None:
         self.line_depth.setEnabled(on)
+        self.line_depth.setVisible(on)
         if on and self.line_depth.value() <= 0.0:
             self.line_depth.setValue(round(self.preview.deepest_point_m() + 0.5, 3))
         self.preview.set_clearance_line(self.line_depth.value() if on else None)

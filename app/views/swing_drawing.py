@@ -25,7 +25,7 @@ from app import theme
 from core.mass_properties import Body
 
 __all__ = ["Outline", "outlines_from_bodies", "Drawing", "Envelope",
-           "pivot_item", "cosmetic_pen"]
+           "pivot_item", "pivot_path", "cosmetic_pen", "THIN_PX"]
 
 # Colours: the workbench theme's paper, ink, ghost and marker; the parts' own colours here.
 INK = theme.INK
@@ -44,6 +44,7 @@ CENTRE_PATH_COLOUR = theme.EXACT
 LOWEST_PATH_COLOUR = theme.LINEAR
 
 _ROUND_SHAPES = ("sphere", "disc", "lens")
+THIN_PX = 2.0  # rods and sleeves drawn narrower than this are outlined, not filled
 
 
 @dataclass(frozen=True)
@@ -153,6 +154,28 @@ class Drawing:
                 inner.setRect(_inner_rect(o))  # type: ignore[attr-defined]
         return True
 
+    def fill_thin_parts(self, pixel_m: float) -> None:
+        """Fill a rod or sleeve only when it is drawn wider than ``THIN_PX`` pixels
+        (``pixel_m``: metres per pixel); a thinner one is its outline alone. Filling a
+        rectangle narrower than a pixel, rotated, leaves a faint vertical streak beside it
+        (the rasteriser's), the "second line along the cable" at some zoom levels."""
+        if self.ghost:
+            return
+        for name, o in self.outlines.items():
+            if o.kind not in ("rod", "sleeve"):
+                continue
+            item = self.items[name]
+            thin = o.width_m < THIN_PX * pixel_m
+            brush = (QtGui.QBrush(QtCore.Qt.BrushStyle.NoBrush) if thin
+                     else pg.mkBrush(ROD_COLOUR if o.kind == "rod" else SLEEVE_COLOUR))
+            if item.brush().style() != brush.style():  # type: ignore[attr-defined]
+                item.setBrush(brush)  # type: ignore[attr-defined]
+
+    def is_filled(self, name: str) -> bool:
+        """Whether part ``name`` is drawn filled."""
+        brush = self.items[name].brush()  # type: ignore[attr-defined]
+        return bool(brush.style() != QtCore.Qt.BrushStyle.NoBrush)
+
     def set_angle(self, angle_rad: float) -> None:
         """Rotate the drawing about the pivot; positive angles move the bob to the right."""
         self.group.setRotation(-math.degrees(angle_rad))
@@ -256,16 +279,40 @@ def _weight_item(ghost: bool) -> QtWidgets.QGraphicsEllipseItem:
     return item
 
 
-def pivot_item() -> QtWidgets.QGraphicsPathItem:
-    """Pivot: a small hatched bracket and a dot, fixed screen size, at the origin."""
+def pivot_path(suspension: str = "knife_edge") -> QtGui.QPainterPath:
+    """The pivot's symbol in screen pixels (y down), the pivot at the origin.
+
+    A knife edge: a hatched bearing plate with the edge's wedge under it, its point at the
+    pivot. A suspension spring: a clamp block under the hatched support, a short flat blade
+    hanging from it and the pendulum's small clamp at the blade's foot, where it bends.
+    """
     path = QtGui.QPainterPath()
+    if suspension == "spring":
+        top = -24.0
+        path.moveTo(-14, top)
+        path.lineTo(14, top)
+        for x in range(-12, 15, 6):
+            path.moveTo(x, top)
+            path.lineTo(x - 5, top - 6)
+        path.addRect(QtCore.QRectF(-8, top, 16, 8))  # the chops (upper clamp)
+        path.addRect(QtCore.QRectF(-1.5, top + 8, 3, -top - 11))  # the blade
+        path.addRect(QtCore.QRectF(-5, -3, 10, 6))  # the pendulum's clamp
+        return path
     path.moveTo(-14, 0)
     path.lineTo(14, 0)
     for x in range(-12, 15, 6):
         path.moveTo(x, 0)
         path.lineTo(x - 5, -6)
-    path.addEllipse(QtCore.QPointF(0, 0), 3.0, 3.0)
-    item = QtWidgets.QGraphicsPathItem(path)
+    wedge = QtGui.QPolygonF([QtCore.QPointF(0, 0), QtCore.QPointF(-5, 9),
+                             QtCore.QPointF(5, 9)])
+    path.addPolygon(wedge)
+    path.closeSubpath()
+    return path
+
+
+def pivot_item(suspension: str = "knife_edge") -> QtWidgets.QGraphicsPathItem:
+    """The pivot's symbol (:func:`pivot_path`), fixed screen size, at the origin."""
+    item = QtWidgets.QGraphicsPathItem(pivot_path(suspension))
     item.setFlag(QtWidgets.QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations, True)
     item.setPen(cosmetic_pen(INK, 1.5))
     item.setBrush(pg.mkBrush(INK))
@@ -273,10 +320,9 @@ def pivot_item() -> QtWidgets.QGraphicsPathItem:
     return item
 
 
-
 class Envelope:
-    """The paths of the bob centre and of the lowest point over the swing, the rays to the bob
-    centre's extreme positions, and the pivot: made once in ``view``, moved by each result."""
+    """The paths of the bob centre and of the lowest point over the swing, and the pivot's
+    symbol (knife edge or spring): made once in ``view``, moved by each result."""
 
     def __init__(self, view: pg.ViewBox) -> None:
         dashed = QtCore.Qt.PenStyle.DashLine
@@ -284,30 +330,31 @@ class Envelope:
                                                         style=dashed))
         self.lowest_arc = pg.PlotCurveItem(pen=pg.mkPen(LOWEST_PATH_COLOUR, width=2,
                                                         style=dashed))
-        ray_pen = pg.mkPen(CENTRE_PATH_COLOUR, width=1, style=QtCore.Qt.PenStyle.DotLine)
-        self.rays = (pg.PlotCurveItem(pen=ray_pen), pg.PlotCurveItem(pen=ray_pen))
-        for curve in (self.centre_arc, self.lowest_arc, *self.rays):
+        for curve in (self.centre_arc, self.lowest_arc):
             view.addItem(curve, ignoreBounds=True)
-        self.pivot = pivot_item()
+        self.suspension = "knife_edge"
+        self.pivot = pivot_item(self.suspension)
         view.addItem(self.pivot, ignoreBounds=True)
 
     def update(self, amplitude_rad: float, deepest_m: float,
-               outlines: tuple[Outline, ...]) -> bool:
+               outlines: tuple[Outline, ...], suspension: str = "knife_edge") -> bool:
         """Arcs traced at ±``amplitude_rad`` by the bob centre and by the deepest point
-        (``deepest_m`` below the pivot); radial lines to the bob centre's extreme positions.
-        Returns whether there is a bob (whose centre's path is drawn)."""
+        (``deepest_m`` below the pivot), and the pivot drawn for ``suspension``
+        ("knife_edge" or "spring"). Returns whether there is a bob (whose centre's path is
+        drawn).
+
+        No radial lines to the extreme positions: at small arcs they run along the rod and
+        read as a second rod."""
+        if suspension != self.suspension:
+            self.suspension = suspension
+            self.pivot.setPath(pivot_path(suspension))
         phi = np.linspace(-amplitude_rad, amplitude_rad, 181)
         sin_phi, cos_phi = np.sin(phi), np.cos(phi)
         bob = next((o for o in outlines if o.kind == "bob"), None)
         self.lowest_arc.setData(deepest_m * sin_phi, deepest_m * cos_phi)
         if bob is None:
             self.centre_arc.setData([], [])
-            for ray in self.rays:
-                ray.setData([], [])
             return False
         r = bob.centre_m
         self.centre_arc.setData(r * sin_phi, r * cos_phi)
-        for side, ray in zip((-1.0, 1.0), self.rays, strict=True):
-            ray.setData([0.0, side * r * math.sin(amplitude_rad)],
-                        [0.0, r * math.cos(amplitude_rad)])
         return True

@@ -16,11 +16,11 @@ import pyqtgraph as pg
 from PySide6 import QtCore, QtGui, QtWidgets
 
 from app import theme
+from app.form.units import UnitSystem, figure_text
 from app.views.axes import style_axis
 from app.views.base import DRAG_MARGIN, KEEP_FILL, ResultView
 from app.views.pivot_marks import PivotMarks
 from app.views.swing_animation import (
-    SPEED_LABELS,
     SPEEDS,
     MotionClock,
     SwingAnimation,
@@ -48,6 +48,10 @@ COMPACT_WIDTH_PX = 420  # narrower than this, the figures box is cut to two line
 INK = theme.INK
 LINE_COLOUR = theme.MARKER
 WARNING_COLOUR = theme.PROBLEM
+CENTRE_PATH_COLOUR = theme.EXACT
+LOWEST_PATH_COLOUR = theme.LINEAR
+NARROW_CONTROLS_PX = 520  # narrower than this, the control bar uses its short words
+SMOOTH_DRAWING = True  # antialiased drawing (benchmarks/gui_bench.py measures its cost)
 
 
 class SwingPreview(ResultView, SwingAnimation):
@@ -73,6 +77,7 @@ class SwingPreview(ResultView, SwingAnimation):
         """``clock``: where the animation reads the time (default :class:`WallClock`)."""
         super().__init__(parent=parent)
         self.controls: SwingPreviewControls | None = None
+        self._system = UnitSystem.METRIC
         self._drawing: Drawing | None = None
         self._ghost: Drawing | None = None
         self._clock: MotionClock | None = None
@@ -81,6 +86,7 @@ class SwingPreview(ResultView, SwingAnimation):
         self._legend_names: tuple[str, ...] = ()
         self._shown_range: tuple[float, float, float, float] | None = None
         self._setup_animation(clock)
+        self.setAntialiasing(SMOOTH_DRAWING)  # a rotated rod is stair-stepped without it
         self._setup_axes()
         self._envelope = Envelope(self.getPlotItem().getViewBox())
         self.marks = PivotMarks()
@@ -101,18 +107,14 @@ class SwingPreview(ResultView, SwingAnimation):
         vb.invertY(True)
         vb.setAspectLocked(True, ratio=1.0)
         vb.disableAutoRange()
-        self._legend = item.addLegend(offset=(-10, 10), labelTextColor=INK,
-                                      brush=pg.mkBrush(255, 255, 255, 210), pen=pg.mkPen("#bbbbbb"))
 
     def _setup_overlay(self) -> None:
-        """Figures in a box fixed to the view's top-left corner; the load caution under the
-        plot, wrapped to the plot's width, where it never hides the drawing."""
+        """The figures, the key to the paths and the load caution under the plot, wrapped to
+        the plot's width: outside the drawing area, so they never hide the pivot, the bob or
+        the release position."""
         item = self.getPlotItem()
-        self._info = pg.TextItem(anchor=(0, 0), color=INK, fill=pg.mkBrush(255, 255, 255, 215),
-                                 border=pg.mkPen("#bbbbbb"))
-        self._info.setParentItem(item.getViewBox())
-        self._info.setPos(8, 8)
-        self._info.setZValue(20)
+        self._info = pg.LabelItem("", justify="left", color=INK, size="9pt")
+        item.layout.addItem(self._info, 4, 0, 1, 5)
         self._info_html = ""
         self._compact_shown = False
         self._caution = pg.LabelItem("", justify="left", color="#7a4b00", size="8pt")
@@ -123,8 +125,9 @@ class SwingPreview(ResultView, SwingAnimation):
         self._line = pg.InfiniteLine(pos=1.0, angle=0, movable=True,
                                      pen=cosmetic_pen(LINE_COLOUR, 2.0),
                                      hoverPen=cosmetic_pen(LINE_COLOUR, 3.0))
-        self._line_label = pg.InfLineLabel(self._line, text="", position=0.7,
-                                           anchors=[(0.5, 1), (0.5, 1)], color=LINE_COLOUR,
+        # under the line at the right edge: the bob and its paths are above a clear line
+        self._line_label = pg.InfLineLabel(self._line, text="", position=0.98,
+                                           anchors=[(1, 0), (1, 0)], color=LINE_COLOUR,
                                            fill=pg.mkBrush(255, 255, 255, 220))
         self._line.setZValue(15)
         self._line.sigPositionChanged.connect(self._on_line_moved)
@@ -208,7 +211,9 @@ class SwingPreview(ResultView, SwingAnimation):
 
     def info_text(self) -> str:
         """The figures box as plain text (design name, swing, speed, peak load)."""
-        return self._info.textItem.toPlainText()
+        doc = QtGui.QTextDocument()
+        doc.setHtml(self._info.text)
+        return doc.toPlainText().replace("\n", " ").replace("\u2029", " ")
 
     def caution_text(self) -> str:
         """The caution printed under the drawing (the load caution), as plain text."""
@@ -240,18 +245,8 @@ class SwingPreview(ResultView, SwingAnimation):
     def _update_envelope(self, result: Result, outlines: tuple[Outline, ...]) -> None:
         """The paths over the swing, and their legend (the bob centre's only with a bob)."""
         bob = self._envelope.update(math.radians(float(result.amplitude_deg)), self._deepest_m,
-                                    outlines)
-        marks = self.marks.legend_entries()
-        names = ((("Path of bob centre",) if bob else ()) + ("Path of lowest point",)
-                 + tuple(text for _item, text in marks))
-        if names != self._legend_names:
-            self._legend_names = names
-            self._legend.clear()
-            if bob:
-                self._legend.addItem(self._envelope.centre_arc, names[0])
-            self._legend.addItem(self._envelope.lowest_arc, "Path of lowest point")
-            for item, text in marks:
-                self._legend.addItem(item, text)
+                                    outlines, result.design.suspension.kind)
+        self._legend_names = (("Path of bob centre",) if bob else ()) + ("Path of lowest point",)
 
     def _fit_view(self) -> None:
         """Show the whole pendulum, its sweep and the clearance line, to scale."""
@@ -263,10 +258,12 @@ class SwingPreview(ResultView, SwingAnimation):
         top = min([o.top_m for o in outlines] + [0.0])
         if self._clock.amplitude_rad > math.pi / 2:
             top = min(top, -self._deepest_m * math.sin(self._clock.amplitude_rad - math.pi / 2))
-        bottom = max(self._deepest_m, self.clearance_line_m() or 0.0, self._site.floor_m())
+        line = self.clearance_line_m()
+        bottom = max(self._deepest_m, line or 0.0, self._site.floor_m())
         span = max(bottom - top, 2 * reach, 0.05)
-        shown = (-reach - 0.04 * span, reach + 0.04 * span, top - 0.06 * span,
-                 bottom + 0.05 * span)
+        below = 0.12 if line is not None else 0.05  # room for the line's label under it
+        shown = (-reach - 0.04 * span, reach + 0.04 * span, top - 0.08 * span,
+                 bottom + below * span)
         if shown == self._shown_range:
             return
         if self._streaming:
@@ -281,49 +278,66 @@ class SwingPreview(ResultView, SwingAnimation):
         self._shown_range = shown
         self.getPlotItem().getViewBox().setRange(xRange=shown[:2], yRange=shown[2:],
                                                  padding=0.0)
+        self._fill_thin_parts()
+
+    def _fill_thin_parts(self) -> None:
+        """Outline, not fill, the rods thinner than a couple of pixels at this zoom."""
+        vb = self.getPlotItem().getViewBox()
+        (x0, x1), _ = vb.viewRange()
+        width_px = max(float(vb.width()), 1.0)
+        for drawing in (self._drawing, self._ghost):
+            if drawing is not None:
+                drawing.fill_thin_parts((x1 - x0) / width_px)
 
     @property
     def compact(self) -> bool:
-        """True in a small pane: the figures box keeps two short lines and the legend of the
-        paths is hidden, so neither covers the drawing."""
+        """True in a small pane: the figures under the drawing are cut to one short line."""
         return self.width() < COMPACT_WIDTH_PX
 
     def _update_info(self) -> None:
+        """The figures under the drawing: what the design does, never the window's state
+        (an export shows them as they are)."""
         if self._result is None:
             return
         r, e = self._result, self._result.exhibit
-        self._legend.setVisible(not self.compact)
+        key = " · ".join(
+            f"<span style='color:{colour}'>╌╌</span> {name.lower()}"
+            for colour, name in zip((CENTRE_PATH_COLOUR, LOWEST_PATH_COLOUR)[-len(
+                self._legend_names):], self._legend_names, strict=True))
+        key += self.marks.key_html()
+        ghost = " · grey: pinned baseline" if self._ghost is not None else ""
         if self.compact:
-            lines = [f"±{r.amplitude_deg:.3g}° · period {r.period_s:.4f} s",
-                     f"Peak pivot load {r.max_pivot_load_n:.4g} N (ideal)"]
-            if self._ghost is not None:
-                lines.append("Grey: pinned baseline")
+            lines = [f"±{r.amplitude_deg:.3g}° · period {r.period_s:.4f} s · "
+                     f"peak pivot load {self._text(r.max_pivot_load_n, 'N')} (ideal){ghost}"]
             self._set_info(f"<div style='font-size:8pt'>{'<br>'.join(lines)}</div>")
             self._set_caution(r)
             return
-        lines = [f"<b>{escape(r.design.name, quote=False)}</b>",
-                 f"Semi-arc ±{r.amplitude_deg:.3g}° · period {r.period_s:.4f} s",
-                 f"Deepest point {self._deepest_m:.3f} m below pivot"]
+        figures = [f"<b>{escape(r.design.name, quote=False)}</b>",
+                   f"semi-arc ±{r.amplitude_deg:.3g}°", f"period {r.period_s:.4f} s",
+                   f"deepest point {self._text(self._deepest_m, 'm')} below pivot"]
         if e.sweep_width_m is not None and r.peak_speed_m_s is not None:
-            lines.append(f"Bob centre sweep {e.sweep_width_m:.3f} m · "
-                         f"peak speed {r.peak_speed_m_s:.3f} m/s")
-        lines.append(f"Peak pivot load {r.max_pivot_load_n:.4g} N (ideal, no safety factor)")
-        state = "playing" if self._playing else "paused"
-        lines.append(f"Animation {state} at {SPEED_LABELS[self._speed]}"
-                     + (" · grey: pinned baseline" if self._ghost is not None else ""))
-        self._set_info(f"<div style='font-size:9pt'>{'<br>'.join(lines)}</div>")
+            figures += [f"bob centre sweep {self._text(e.sweep_width_m, 'm')}",
+                        f"peak speed {self._text(r.peak_speed_m_s, 'm/s')}"]
+        load = self._text(r.max_pivot_load_n, "N")
+        figures.append(f"peak pivot load {load} (ideal, no safety factor)")
+        text = " · ".join(figures) + "<br>" + key + ghost
+        self._set_info(f"<div style='font-size:9pt'>{text}</div>")
         self._set_caution(r)
 
     def _set_info(self, html: str) -> None:
         if html != self._info_html:
             self._info_html = html
-            self._info.setHtml(html)
+            self._info.setText(html)
 
     def _set_caution(self, r: Result) -> None:
-        cautions = [LOAD_CAUTION] + [c for c in r.cautions if c == SPRING_CAUTION]
-        text = "<b>Caution.</b> " + "<br>".join(escape(c, quote=False) for c in cautions)
+        """The core's load and spring cautions where they apply to this design (none for a
+        light clock pendulum on a knife edge)."""
+        cautions = [c for c in r.cautions if c in (LOAD_CAUTION, SPRING_CAUTION)]
+        text = ("<b>Caution.</b> " + "<br>".join(escape(c, quote=False) for c in cautions)
+                if cautions else "")
         if text != self._caution.text:
             self._caution.setText(text)
+            self._caution.setVisible(bool(text))
 
     def _reframe(self) -> None:
         if self._drawing is not None:
@@ -343,6 +357,12 @@ class SwingPreview(ResultView, SwingAnimation):
         self.controls = SwingPreviewControls(self, parent=self)
         self.control_bar(leading=True, strip=self.controls)
 
+    def _fit_strip(self) -> None:
+        """Short control words in a narrow pane, so every control fits the bar."""
+        if self.controls is not None:
+            self.controls.set_narrow(self.width() < NARROW_CONTROLS_PX)
+        super()._fit_strip()
+
     def resizeEvent(self, event: QtGui.QResizeEvent) -> None:  # Qt override
         """Wrap the caution to the new width before the plot's layout is redone."""
         # pyqtgraph resizes while the base is being built, and again while closing (its items
@@ -351,6 +371,8 @@ class SwingPreview(ResultView, SwingAnimation):
             compact = self.compact
             self._wrap_caution()
             super().resizeEvent(event)
+            if self._drawing is not None:
+                self._fill_thin_parts()
             if compact != self._compact_shown:
                 self._compact_shown = compact
                 self._update_info()
@@ -361,9 +383,16 @@ class SwingPreview(ResultView, SwingAnimation):
         """Let the caution wrap within the widget's width (it sets the plot's least width
         otherwise, and the preview could not share a small pane)."""
         width = float(max(self.width() - CAUTION_MARGIN_PX, CAUTION_MIN_WIDTH_PX))
-        if abs(self._caution.item.textWidth() - width) > 0.5:
-            self._caution.item.setTextWidth(width)
-            self._caution.updateMin()
+        for label in (self._info, self._caution):
+            if abs(label.item.textWidth() - width) > 0.5:
+                label.item.setTextWidth(width)
+                label.updateMin()
+
+    def close(self) -> bool:  # pyqtgraph's close clears the scene: no frame after it
+        """Stop the animation, then close (the drawing's items go with the scene)."""
+        self._timer.stop()
+        self._playing = False
+        return bool(super().close())
 
     def hideEvent(self, event: QtGui.QHideEvent) -> None:  # Qt override
         """Stop the timer while hidden (the swing time holds); it resumes when shown if still
@@ -378,6 +407,16 @@ class SwingPreview(ResultView, SwingAnimation):
             self._anchor()
             self._timer.start()
 
+    # ------------------------------------------------------------------ units
+    def set_unit_system(self, system: UnitSystem) -> None:
+        """Give the figures box and the clearance line's label in ``system``'s units."""
+        self._system = system
+        self._update_info()
+        self._on_line_moved()
+
+    def _text(self, si: float, unit: str) -> str:
+        return figure_text(si, unit, self._system)
+
     # ------------------------------------------------------------------ clearance
     def _on_line_moved(self) -> None:
         clearance = self.clearance_m()
@@ -387,10 +426,11 @@ class SwingPreview(ResultView, SwingAnimation):
         depth = self.clearance_line_m() or 0.0
         reached = clearance <= 0.0
         colour = WARNING_COLOUR if reached else LINE_COLOUR
+        at, gap = self._text(depth, "m"), self._text(abs(clearance), "m")
         if reached:
-            text = f"Line at {depth:.3f} m: the swing reaches it ({-clearance:.3f} m over)"
+            text = f"Line at {at}: the swing reaches it ({gap} over)"
         else:
-            text = f"Line at {depth:.3f} m · clearance {clearance:.3f} m"
+            text = f"Line at {at} · clearance {gap}"
         self._line.setPen(cosmetic_pen(colour, 2.5 if reached else 2.0))
         self._line_label.setColor(colour)
         self._line_label.setFormat(text.replace("{", "{{").replace("}", "}}"))

@@ -20,7 +20,7 @@ from typing import Any
 from PySide6.QtCore import QTimer
 
 from app.document.settings import app_settings, store_budget_ranges
-from app.form.labels import field_label
+from app.form.field_text import setting_reason
 from app.form.units import UnitSystem
 from app.window.analysis_worker import AnalysisRunner, warm_up
 from app.window.exhibit_focus import focus_for_purpose
@@ -179,13 +179,13 @@ class WindowComputing(WindowParts):
         if error.field == "trim_height_m":
             self.readout.show_trim_problem(error.reason)
             return
-        where = field_label(error.field) if error.field not in ("design", "parts") else "Design"
+        sentence = self.design_panel.refusal_text(error)
         self.readout.show_compute_problem(
-            f"{where}: {error.reason}. The plots and figures still show the last design that "
-            "could be computed.")
+            f"{sentence} The plots and figures still show the last design that could be "
+            "computed.")
         row = self.design_panel.all_rows().get(error.field)
         if row is not None:
-            row.mark(error.reason)
+            row.mark(sentence)
 
     def _on_design_changed(self, _design: Design) -> None:
         self._update_title()
@@ -207,7 +207,7 @@ class WindowComputing(WindowParts):
         try:
             ranges = budget_ranges(**values)
         except DesignError as exc:
-            self.readout.show_budget_problem(key, exc.reason)
+            self.readout.show_budget_problem(key, setting_reason(exc, self._system))
             return
         self._budget_ranges = ranges
         self.readout.set_budget_ranges(ranges)
@@ -242,7 +242,7 @@ class WindowComputing(WindowParts):
         self.design_panel.set_unit_system(system)
         self.readout.set_unit_system(system)
         for view in self.plots:
-            if hasattr(view, "set_unit_system"):  # the rating view's temperatures, pressures
+            if hasattr(view, "set_unit_system"):  # the rating view; the swing preview
                 view.set_unit_system(system)
         self._reshow_problem()
         if self._remember:

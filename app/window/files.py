@@ -202,8 +202,9 @@ class WindowFiles(WindowParts):
             self.show_message("Cannot export", "There is no valid design to export yet.")
             return []
         try:
-            return export_result(self.result, folder, self.document.display_name())
+            return export_result(self.result, folder, self.document.display_name(),
+                                 system=self._system)
         except DesignError as exc:
-            self.show_message("Cannot export", f"{exc.field}: {exc.reason}")
+            self.show_message("Cannot export", exc.reason[:1].upper() + exc.reason[1:])
             return []
 

@@ -10,6 +10,7 @@ and figures at the last good result and says why.
 
 from __future__ import annotations
 
+from importlib.metadata import PackageNotFoundError, version
 from pathlib import Path
 from typing import Any, cast
 
@@ -32,7 +33,23 @@ from app.window.menus import WindowMenus
 from core import Design, DesignError, Result
 from core.tuning import BudgetRanges
 
-__all__ = ["MainWindow", "examples_folder", "example_files", "DESIGN_FILTER"]
+__all__ = ["MainWindow", "examples_folder", "example_files", "DESIGN_FILTER", "about_text",
+           "app_version"]
+
+
+def app_version() -> str:
+    """The installed package's version ("unknown" when run from a tree never installed)."""
+    try:
+        return version("penduline")
+    except PackageNotFoundError:
+        return "unknown"
+
+
+def about_text() -> str:
+    """Help ▸ About: what Penduline is, and its version."""
+    return (f"Penduline {app_version()} — a workbench for real pendulums.\n\nExact dynamics "
+            "of the compound pendulum, local gravity, temperature and air, with rates in "
+            "seconds per day.")
 
 
 class MainWindow(WindowMenus, WindowComputing, WindowFiles, WindowLayout, QMainWindow):
@@ -121,10 +138,7 @@ class MainWindow(WindowMenus, WindowComputing, WindowFiles, WindowLayout, QMainW
         box.open()
 
     def _about(self) -> None:
-        QMessageBox.about(self, "About Penduline",
-                          "Penduline — a workbench for real pendulums.\n\nExact dynamics of "
-                          "the compound pendulum, local gravity, temperature and air, with "
-                          "rates in seconds per day.")
+        QMessageBox.about(self, "About Penduline", about_text())
 
     def _update_title(self) -> None:
         self.setWindowTitle(f"{self.document.display_name()}[*] — "

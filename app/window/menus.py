@@ -14,6 +14,7 @@ from app.form.materials_dialog import MaterialsDialog
 from app.form.units import UnitSystem
 from app.views.motion import MotionPlot
 from app.views.rating_view import RatingView
+from app.views.recording_view import RecordingView
 from app.window.files import example_files, example_title
 from app.window.parts import WindowParts
 from app.window.sheet_export import ask_export_sheet
@@ -53,6 +54,7 @@ class WindowMenus(WindowParts):
             self._action(self.examples_menu, example_title(path), self._opener(path))
         self.recent_menu = menu.addMenu("Open &recent")
         self.recent_menu.aboutToShow.connect(self._fill_recent_menu)
+        self._action(menu, "Open a &beat recording…", self._open_recording)
         menu.addSeparator()
         self._action(menu, "&Save", self.save, QKeySequence.StandardKey.Save)
         self._action(menu, "Save &as…", self.save_as, QKeySequence.StandardKey.SaveAs)
@@ -110,6 +112,7 @@ class WindowMenus(WindowParts):
         motion.difference_action.toggled.connect(self.difference_action.setChecked)
         menu.addAction(self.difference_action)
         self._action(menu, "&Rating log", self._show_rating_view, "Ctrl+Shift+R")
+        self._action(menu, "Beat recor&ding", self._show_recording_view)
         menu.addSeparator()
         self._action(menu, "&Pin current design as baseline", self.pin_baseline, "Ctrl+B")
         self._action(menu, "&Clear baseline", self.clear_baseline)
@@ -135,6 +138,17 @@ class WindowMenus(WindowParts):
 
     def _show_rating_view(self) -> None:
         self.plot_area.show_plot(self.plots.index(self._rating_view()))
+
+    def _recording_view(self) -> RecordingView:
+        return next(p for p in self.plots if isinstance(p, RecordingView))
+
+    def _show_recording_view(self) -> None:
+        self.plot_area.show_plot(self.plots.index(self._recording_view()))
+
+    def _open_recording(self) -> None:
+        """Bring the recording view on view and ask for a WAV file."""
+        self._show_recording_view()
+        self._recording_view().ask_open()
 
     def _add_rating_reading(self) -> None:
         """Bring the rating view on view and add a reading at the present time."""

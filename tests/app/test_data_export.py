@@ -56,7 +56,7 @@ def test_period_curve_csv(tmp_path, atrium):
     path = write_period_curve_csv(atrium, tmp_path / "curve.csv")
     header, rows = _read(path)
     assert tuple(header) == PERIOD_CURVE_COLUMNS == (
-        "amplitude_deg", "period_s", "circular_error_s_per_day")
+        "semi_arc_deg", "period_s", "circular_error_s_per_day")
     data = np.array(rows, dtype=float)
     assert data.shape == (400, 3)
     assert data[0, 0] == pytest.approx(0.05) and data[-1, 0] == pytest.approx(179.9)

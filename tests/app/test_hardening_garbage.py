@@ -461,7 +461,7 @@ def test_a_design_the_core_refuses_stays_reported_through_redraws(window: MainWi
     window.document.commit(above, "Move rod", "parts[0].top_m")
     window.compute_now()
     problem = window.readout.compute_problem.text()
-    assert problem.startswith("Design: the centre of mass must hang below the pivot")
+    assert problem.startswith("The centre of mass must hang below the pivot")
     for redraw in (lambda: window.set_unit_system(UnitSystem.INCH_POUND), window.pin_baseline,
                    window.clear_baseline, lambda: window.set_unit_system(UnitSystem.METRIC)):
         redraw()

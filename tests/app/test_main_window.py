@@ -109,8 +109,8 @@ class TestBadInput:
         assert window.document.design == before.design
 
     @pytest.mark.parametrize("path, text, words", [
-        ("parts[0].length_m", "-1", "out of range"),
-        ("swing.amplitude_deg", "180", "out of range"),
+        ("parts[0].length_m", "-1", "Rod length must be between 0.1 mm and 1000 m."),
+        ("swing.amplitude_deg", "180", "Semi-arc must be between"),
     ])
     def test_values_out_of_range_are_refused_with_the_core_reason(
             self, window: MainWindow, qtbot, path: str, text: str, words: str) -> None:  # type: ignore[no-untyped-def]
@@ -147,7 +147,7 @@ class TestBudgetRanges:
         # Example site 20 °C; default ranges ±5 K, ±30 hPa, ±0.1°.
         default_line = window.result.budget.lines[0]
         assert budget_rows(window)[0] == ("Temperature ±5 °C",
-                                          f"{default_line.spread_s_per_day:+.2f}")
+                                          f"{abs(default_line.spread_s_per_day):.2f}")
         type_into(qtbot, window.readout.budget_fields["temperature_k"], "10")
         qtbot.waitUntil(lambda: window.result.budget.lines[0].high == 30.0)
         expected = analyse(window.document.design,
@@ -157,7 +157,7 @@ class TestBudgetRanges:
         assert line == expected.lines[0]  # the same computation: equal to the last bit
         assert window.result.budget.lines[1:] == expected.lines[1:]  # the others untouched
         assert budget_rows(window)[0] == ("Temperature ±10 °C",
-                                          f"{expected.lines[0].spread_s_per_day:+.2f}")
+                                          f"{abs(expected.lines[0].spread_s_per_day):.2f}")
         assert budget_rows(window)[3] == ("Worst case (sum)",
                                           f"{expected.worst_case_s_per_day:.2f}")
         # A range twice as wide spreads the rate (nearly linear in temperature) about twice
@@ -195,10 +195,10 @@ class TestBudgetRanges:
         assert again.budget_ranges() == BudgetRanges()
 
     @pytest.mark.parametrize("key, text, words", [
-        ("temperature_k", "-2", "out of range"),
+        ("temperature_k", "-2", "must be between 0 and 100 °C"),
         ("pressure_hpa", "nan", "not a finite number"),
         ("arc_deg", "wide", "is not a number"),
-        ("arc_deg", "95", "out of range"),
+        ("arc_deg", "95", "must be between 0 and 90°"),
     ])
     def test_a_refused_range_is_marked_and_the_last_result_kept(
             self, window: MainWindow, qtbot, key: str, text: str, words: str) -> None:  # type: ignore[no-untyped-def]

@@ -116,7 +116,7 @@ class TestSpringBlades:
         first = window.result
         assert first is not None and first.suspension_stiffness_n_m_per_rad > 0
         assert first.blade_stresses is not None
-        type_into(qtbot, number(window, "suspension.blades.thickness_m"), "0.0002")
+        type_into(qtbot, number(window, "suspension.blades.thickness_m"), "0.2")  # mm
         window.compute_now()
         r = window.result
         assert r is not None and window.document.design.suspension.blades.thickness_m == 0.0002  # type: ignore[union-attr]
@@ -139,10 +139,10 @@ class TestSpringBlades:
             self, window: MainWindow, qtbot) -> None:  # type: ignore[no-untyped-def]
         self._blades(window)
         good = window.document.design
-        type_into(qtbot, number(window, "suspension.blades.thickness_m"), "0.5")
+        type_into(qtbot, number(window, "suspension.blades.thickness_m"), "50")  # mm
         assert window.document.design == good
         problem = window.design_panel.row("suspension.blades.thickness_m").problem()
-        assert "0.005" in problem  # the sentence names the field's upper bound, 5 mm
+        assert "and 5 mm" in problem  # the sentence names the field's upper bound, 5 mm
 
     def test_back_to_a_stiffness_starts_from_the_blades_figure(self, window: MainWindow
                                                                 ) -> None:

@@ -185,11 +185,12 @@ class TestPivotMarks:
         assert depths["centre_of_oscillation"] == r.centre_of_oscillation_m
         assert depths["shortest_period_pivot"] == pytest.approx(
             r.centre_of_mass_m - r.pivot.shortest_period_pivot_m, abs=1e-15)
-        texts = [text for _item, text in preview.marks.legend_entries()]
-        assert texts == ["Pivot", "Centre of mass", "Centre of oscillation",
-                         "Shortest-period pivot"]
-        symbols = {str(item.opts["symbol"]) for item, _t in preview.marks.legend_entries()}
-        assert len(symbols) == 4  # told apart by shape, not colour alone
+        assert preview.marks.key_names() == ["Centre of mass", "Centre of oscillation",
+                                             "Shortest-period pivot"]
+        key = preview.info_text()
+        for glyph, name in (("◐", "centre of mass"), ("◇", "centre of oscillation"),
+                            ("△", "shortest-period pivot")):
+            assert f"{glyph} {name}" in key  # told apart by shape, not colour alone
 
     def test_the_marks_swing_with_the_body(self, window) -> None:  # type: ignore[no-untyped-def]
         preview = next(p for p in window.plots if isinstance(p, SwingPreview))

@@ -71,8 +71,11 @@ def test_phase_fills_its_fixed_slots(qtbot, results) -> None:  # type: ignore[no
     plot.show_result(result)
     plot.show_result(result)
     assert len(plot.getPlotItem().items) == items_before  # items are reused, never re-added
-    np.testing.assert_allclose(plot.current.getData()[0],
-                               np.degrees(result.phase.current.angle_rad))
+    # a damped swing is drawn as the core's motion from release (angle, angular velocity)
+    assert result.design.swing.quality_factor is not None
+    np.testing.assert_allclose(plot.current.getData()[0], np.degrees(result.motion.angle_rad))
+    np.testing.assert_allclose(plot.current.getData()[1],
+                               np.degrees(result.motion.angular_velocity_rad_s))
     used = sum(c.getData()[0] is not None and c.getData()[0].size > 0
                for c in plot.neighbours)
     assert used == len(result.phase.neighbours)
@@ -122,7 +125,8 @@ class TestPeriodCurve:
         plot.show_result(result)
         assert plot.marker.value() == pytest.approx(1.6)
         assert (plot.dot.pos().x(), plot.dot.pos().y()) == pytest.approx((1.6, result.period_s))
-        assert plot.marker_text() == "1.6°\n1.999926 s\n4.211 s/day"
+        assert plot.marker_text() == ("1.6°\n1.999926 s\n4.211 s/day lost to the arc\n"
+                                      "(against vanishing arcs)")
         plot.set_quantity("circular_error")
         assert plot.dot.pos().y() == pytest.approx(result.circular_error_s_per_day)
 

@@ -253,7 +253,8 @@ class TestAnimation:
         preview.advance(0.2)
         assert preview.time_s == pytest.approx(0.07, abs=1e-15)
         assert preview.shown_angle_rad() == pytest.approx(preview.angle_at(0.07), abs=1e-15)
-        assert "1/10×" in preview.info_text()
+        # the speed is the window's state: the control bar shows it, the drawing does not
+        assert "1/10×" not in preview.info_text() and "nimation" not in preview.info_text()
         with pytest.raises(ValueError, match="speed"):
             preview.set_speed(2.0)
 
@@ -490,3 +491,25 @@ def test_window_preview_has_play_and_speed_controls(window, qtbot) -> None:  # t
     assert preview.is_playing()
     controls.play_button.setChecked(False)
     assert not preview.is_playing()
+
+
+def test_the_load_caution_only_where_the_core_gives_it(qtbot, regulator):  # type: ignore[no-untyped-def]
+    from core.analysis import LOAD_CAUTION_MASS_KG
+
+    view = SwingPreview()
+    qtbot.addWidget(view)
+    # the regulator, 9.1 kg and 1.1 m long, is below the core's threshold for the caution
+    assert regulator.mass_kg < LOAD_CAUTION_MASS_KG
+    view.show_result(regulator)
+    assert LOAD_CAUTION not in regulator.cautions and view.caution_text() == ""
+
+
+def test_a_rod_thinner_than_two_pixels_is_outlined_not_filled(qtbot, atrium, regulator):  # type: ignore[no-untyped-def]
+    # a filled rectangle under a pixel wide, rotated, leaves a faint streak beside it
+    view = SwingPreview()
+    qtbot.addWidget(view)
+    view.resize(700, 760)
+    view.show_result(atrium)  # a 2.5 mm wire in a view some 20 m across: far under a pixel
+    assert not view._drawing.is_filled("wire")
+    view.show_result(regulator)  # an 8 mm rod in a view about 1.3 m across: several pixels
+    assert view._drawing.is_filled("rod")

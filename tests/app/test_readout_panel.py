@@ -79,7 +79,8 @@ def test_budget_rows_are_short_and_their_tooltips_exact(panel, results) -> None:
                     "Worst case (sum)", "Root sum square"]
     tip = panel._budget_items[1].toolTip(0)
     line = result.budget.lines[1]
-    assert tip.startswith("Air pressure from 983.25 to 1043.25 hPa: rate ")
+    assert tip.startswith("Spread of the rate, end to end, while the air pressure goes from "
+                          "983.25 to 1043.25 hPa: rate ")
     assert f"{line.rate_at_low_s_per_day:+.2f} s/day at the low end" in tip
 
 

@@ -17,7 +17,7 @@ import pytest
 from PySide6 import QtCore, QtGui
 
 from app.readout.readout_format import SECTIONS
-from app.report.pdf import field_label, report_html, widget_image, write_report_pdf
+from app.report.pdf import report_html, widget_image, write_report_pdf
 from app.views.swing_preview import SwingPreview
 from core import analyse, load_design
 from core.analysis import LOAD_CAUTION, SPRING_CAUTION
@@ -55,14 +55,18 @@ class TestContents:
         text = _plain(report_html(atrium, source_name="atrium_pendulum.pendulum.json",
                                   date=dt.date(2031, 4, 5), image_urls={}))
         for needle in ("Atrium pendulum (preview)", "atrium_pendulum.pendulum.json",
-                       "2031-04-05", "wire", "sphere", "length 18 m", "diameter 0.0025 m",
-                       "centre 18.15 m", "latitude 47.3°", "Rate budget", "Temperature",
+                       "2031-04-05", "wire", "sphere", "Rod length 18 m",
+                       "Rod diameter 2.5 mm", "Bob centre 18.15 m", "Latitude 47.3°",
+                       "Knife edge", "Music wire", "Rate budget", "Temperature",
                        "Air pressure", "Semi-arc", "Exhibit figures", "Warnings",
                        "qualified engineer"):
             assert needle in text, needle
         for _section, rows in SECTIONS:
             for _key, label, _unit, _fmt in rows:
-                assert label in text, label
+                # The atrium has no trim weight: its trim figure is quoted at the height chosen.
+                shown = label.replace("at tray", "at 9.07 m").replace("Trim tray height",
+                                                                      "Trim quoted at")
+                assert shown in text, label
         # Figures as the readout formats them (app.readout.readout_format).
         assert "1442.45" in text            # peak pivot load, N
         assert "0.8151" in text             # bob peak speed, m/s
@@ -79,13 +83,20 @@ class TestContents:
         assert _escape(LOAD_CAUTION) in boxes[0] and _escape(SPRING_CAUTION) in boxes[0]
         assert _escape(LOAD_CAUTION) in boxes[1]
 
-    def test_field_labels_carry_units(self):
-        assert field_label("outer_diameter_m") == ("outer diameter", "m")
-        assert field_label("stiffness_n_m_per_rad") == ("stiffness", "N·m/rad")
-        assert field_label("g_m_s2") == ("g", "m/s²")
-        assert field_label("pressure_hpa") == ("pressure", "hPa")
-        assert field_label("temperature_c") == ("temperature", "°C")
-        assert field_label("material") == ("material", "")
+    def test_no_file_key_reaches_the_page(self, qapp, atrium):
+        text = _plain(report_html(atrium, source_name=None, date=dt.date(2031, 4, 5),
+                                  image_urls={}))
+        assert not re.search(r"\b[a-z]+_[a-z_]+\b", text), re.findall(r"\b[a-z]+_[a-z_]+\b",
+                                                                     text)
+        assert "amplitude" not in text.lower() and "Semi-arc" in text
+
+    def test_inch_pound_reaches_the_report(self, qapp, atrium):
+        from app.form.units import UnitSystem
+        text = _plain(report_html(atrium, source_name=None, date=dt.date(2031, 4, 5),
+                                  image_urls={}, system=UnitSystem.INCH_POUND))
+        # 18 m = 708.661 in (1 in = 0.0254 m exactly, by definition).
+        assert "Rod length 708.661 in" in text
+        assert "Site 300 ft higher" in text and " lbf" in text
 
 
 def _escape(text: str) -> str:

@@ -154,3 +154,24 @@ class TestWhenSwept:
         assert window.plot_area.shown_indices() == [index]
         assert sweep.sweep_count == 1
         np.testing.assert_array_equal(sweep.curve.getData()[1], sweep.table.period_s)
+
+
+class TestDefaultsAndLeastMark:
+    def test_a_clamped_bob_is_swept_by_its_position_first(self, sweep):
+        hall = analyse(load_design(EXAMPLES / "hall_clock.pendulum.json"))
+        sweep.show_result(hall)
+        assert sweep.field().path == "parts[1].mount.centre_m"  # the lens bob, clamped
+        # every point of the default range (±20 % of the bob's centre) gives a design
+        assert np.isfinite(sweep.table.period_s).all()
+
+    def test_the_shortest_period_is_marked_only_at_an_interior_minimum(self, sweep, regulator):
+        sweep.show_result(regulator)
+        sweep.set_field("pivot")
+        assert sweep.least_period_value() is not None
+        # the period only shortens as the pivot moves down this first tenth of the rod, so
+        # the least sample is the range's end: no minimum to mark (compound pendulum,
+        # T ∝ sqrt((k² + h²)/h) falls while h > k; plain mechanics)
+        sweep.set_range(0.0, 0.1)
+        periods = np.asarray(sweep.table.period_s, dtype=float)
+        assert np.all(np.diff(periods) < 0)
+        assert sweep.least_period_value() is None and sweep.least_text() == ""

@@ -13,7 +13,7 @@ from pathlib import Path
 
 import pytest
 
-from app.cli import _parsers, main
+from app.cli import _tools_parser, main
 from core import analyse, load_design
 from core.solve import PERIOD_TOLERANCE_S, TEMPERATURE_TOLERANCE_S_PER_DAY_PER_K
 
@@ -95,7 +95,7 @@ class TestSolveCommand:
         assert err.startswith(f"penduline: {option}: ") and err.count("\n") == 1
 
     def test_every_option_has_a_help_line(self) -> None:
-        _, tools = _parsers()
+        tools = _tools_parser()
         sub = next(a for a in tools._actions if isinstance(a, argparse._SubParsersAction))
         solve = sub.choices["solve"]
         for action in solve._actions:
