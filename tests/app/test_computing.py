@@ -132,7 +132,8 @@ def test_a_refused_design_marks_its_field_and_keeps_the_result(
     edit(window, 1.5)
     wait_idle(qtbot, window)
     assert window.result is before
-    assert window.design_panel.all_rows()[LENGTH].problem() == "is refused by the stand-in"
+    assert window.design_panel.all_rows()[LENGTH].problem() == \
+        "Rod length is refused by the stand-in."
     assert "is refused by the stand-in" in window.readout.compute_problem.text()
 
 
