@@ -47,7 +47,8 @@ class SweptGeometry:
 
     Attributes
     ----------
-    bob_rise_m : rise of the main bob's centre at the end of the swing (None: no bob).
+    bob_rise_m : rise of the main bob's centre at the end of the swing, signed: negative for a
+        bob above the pivot, which drops as the body swings (None: no bob).
     lowest_point_m : deepest point of any part's outline during the swing, below the pivot.
     outer_reach_m : largest horizontal distance of the body from the vertical through the pivot.
     outer_sweep_m : width swept by the outermost points of the body, 2 × outer_reach_m.

@@ -10,10 +10,12 @@ from PySide6.QtCore import Qt
 from PySide6.QtGui import QColor
 
 from app import theme
+from app.form.units import METRES_PER_FOOT, ReadoutUnit, UnitSystem, readout_unit
 
-__all__ = ["style_axis", "pen", "degrees", "GRID_SHADE"]
+__all__ = ["style_axis", "pen", "degrees", "GRID_SHADE", "drawing_unit", "label_length_axes"]
 
 GRID_SHADE = 0.16  # grid lines: this far from the background towards the axis colour
+FEET_OVER_M = 6 * METRES_PER_FOOT  # a to-scale drawing deeper than 6 ft is marked in feet
 
 
 def pen(color: str, width: float = 1.0, style: Qt.PenStyle = Qt.PenStyle.SolidLine) -> Any:
@@ -54,3 +56,22 @@ def style_axis(axis: pg.AxisItem, color: str = theme.PLOT_FOREGROUND, grid: bool
         axis.setGrid(False)
         axis.setTickPen(None)
 
+
+
+def drawing_unit(system: UnitSystem, extent_m: float) -> ReadoutUnit:
+    """The unit of a to-scale drawing's axes: metres, or in inch-pound inches (feet when the
+    drawing reaches deeper than 6 ft, ``extent_m`` in metres)."""
+    if system is UnitSystem.INCH_POUND and abs(extent_m) > FEET_OVER_M:
+        return ReadoutUnit("ft", 1.0 / METRES_PER_FOOT)
+    return readout_unit("m", system)
+
+
+def label_length_axes(item: pg.PlotItem, labels: dict[str, str], unit: ReadoutUnit,
+                      color: str = theme.INK) -> None:
+    """Label the axes ``labels`` (axis name → words) of a plot drawn in metres with ``unit``,
+    and number their ticks in it (the scene stays in metres; only the numbers are scaled)."""
+    for name, words in labels.items():
+        item.setLabel(name, words, units=unit.text, color=color)
+        axis = item.getAxis(name)
+        axis.enableAutoSIPrefix(False)
+        axis.setScale(unit.scale)

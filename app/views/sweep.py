@@ -28,6 +28,7 @@ from PySide6.QtWidgets import (
 )
 
 from app import theme
+from app.form.units import ReadoutUnit, UnitSystem, readout_unit
 from app.views.plot_export import export_plot
 from app.views.sweep_canvas import SweepCanvas
 from app.views.sweep_fields import (
@@ -69,6 +70,8 @@ class SweepPlot(QWidget):
         self._path = ""
         self._range_auto = True
         self._quantity = "period"
+        self._system = UnitSystem.METRIC
+        self._range_si = (0.0, 0.0)  # the swept range, SI; the boxes show it in display units
         self._shown_key: tuple[Any, ...] | None = None
         self.table: SweepTable | None = None  # the last sweep drawn
         self.sweep_count = 0
@@ -167,7 +170,7 @@ class SweepPlot(QWidget):
         if self._result is None or not self._path:
             return
         field = self.field()
-        start, stop = self.start_box.value(), self.stop_box.value()
+        start, stop = self._range_si
         key = (self._result.design, self._path, start, stop, SWEEP_POINTS)
         if key == self._shown_key:
             self._draw()  # only the quantity or the marks may have changed
@@ -203,15 +206,29 @@ class SweepPlot(QWidget):
 
     def sweep_range(self) -> tuple[float, float]:
         """(from, to) of the sweep, SI."""
-        return self.start_box.value(), self.stop_box.value()
+        return self._range_si
 
     def set_range(self, start: float, stop: float) -> None:
         """Sweep from ``start`` to ``stop`` (SI); kept until :meth:`reset_range`."""
-        for box, value in ((self.start_box, start), (self.stop_box, stop)):
-            with QSignalBlocker(box):
-                box.setValue(float(value))
+        self._show_range(float(start), float(stop))
         self._range_auto = False
         self._settings_changed()
+
+    def set_unit_system(self, system: UnitSystem) -> None:
+        """Show the range, the axis and the marks in ``system``'s units (the core still
+        sweeps in SI; the range swept stays the same)."""
+        self._system = system
+        if self._fields:
+            self._fill_field_box()
+            self.unit_label.setText(self.display_unit().text)
+            self._show_range(*self._range_si)
+        self._draw()
+
+    def display_unit(self, field: SweepField | None = None) -> ReadoutUnit:
+        """How the values of ``field`` (default: the swept one) are shown now."""
+        if field is None:
+            field = next((f for f in self._fields if f.path == self._path), None)
+        return readout_unit(field.unit if field is not None else "", self._system)
 
     def reset_range(self) -> None:
         """Back to the default range, which then follows the current value."""
@@ -259,40 +276,49 @@ class SweepPlot(QWidget):
                                                                for f in self._fields]
         self._fields = fields
         if not same_choices:
-            with QSignalBlocker(self.field_box):
-                self.field_box.clear()
-                for f in fields:
-                    self.field_box.addItem(f"{f.label} ({f.unit})" if f.unit else f.label,
-                                           f.path)
-                index = self.field_box.findData(self._path)
-                if index < 0:
-                    self._path = default_field(fields).path
-                    index = self.field_box.findData(self._path)
-                    self._range_auto = True
-                self.field_box.setCurrentIndex(index)
-        self.unit_label.setText(self.field().unit)
+            if not any(f.path == self._path for f in fields):
+                self._path = default_field(fields).path
+                self._range_auto = True
+            self._fill_field_box()
+        self.unit_label.setText(self.display_unit().text)
         if self._range_auto:
             self._apply_default_range()
+
+    def _fill_field_box(self) -> None:
+        """List the fields with their units in the chosen system; keep the chosen one."""
+        with QSignalBlocker(self.field_box):
+            self.field_box.clear()
+            for f in self._fields:
+                unit = self.display_unit(f).text
+                self.field_box.addItem(f"{f.label} ({unit})" if unit else f.label, f.path)
+            self.field_box.setCurrentIndex(self.field_box.findData(self._path))
 
     def _apply_default_range(self) -> None:
         if self._result is None or not self._path:
             return
-        start, stop = default_range(self._result.design, self.field())
+        self._show_range(*default_range(self._result.design, self.field()))
+
+    def _show_range(self, start: float, stop: float) -> None:
+        """Keep (``start``, ``stop``) SI as the range and show it in the display unit."""
+        self._range_si = (start, stop)
+        scale = self.display_unit().scale
         for box, value in ((self.start_box, start), (self.stop_box, stop)):
             with QSignalBlocker(box):
-                box.setSingleStep(max(abs(stop - start) / 20.0, 1e-6))
-                box.setValue(value)
+                box.setSingleStep(max(abs(stop - start) * scale / 20.0, 1e-6))
+                box.setValue(value * scale)
 
     def _on_field_chosen(self, index: int) -> None:
         if not 0 <= index < len(self._fields):
             return
         self._path = self._fields[index].path
-        self.unit_label.setText(self._fields[index].unit)
+        self.unit_label.setText(self.display_unit().text)
         self._range_auto = True
         self._apply_default_range()
         self._settings_changed()
 
     def _on_range_edited(self, _value: float) -> None:
+        scale = self.display_unit().scale
+        self._range_si = (self.start_box.value() / scale, self.stop_box.value() / scale)
         self._range_auto = False
         self._settings_changed()
 
@@ -311,13 +337,15 @@ class SweepPlot(QWidget):
         if table is None or result is None:
             return
         field = next((f for f in self._fields if f.path == table.field), None)
-        unit = f" ({field.unit})" if field is not None and field.unit else ""
+        shown = readout_unit("" if field is None else field.unit, self._system)
+        unit = f" ({shown.text})" if shown.text else ""
         name = field.label if field is not None else table.field
         rate = self._quantity == "rate"
         ys = np.asarray(table.rate_s_per_day if rate else table.period_s, dtype=float)
         xs = np.asarray(table.values, dtype=float)
         item = self.plotItem
         item.setLabel("bottom", f"{name}{unit}")
+        item.getAxis("bottom").setScale(shown.scale)  # drawn in SI, ticks in the display unit
         if rate:
             against = ("target" if result.design.target.target_period_s is not None
                        else "the design as it is")
@@ -337,10 +365,9 @@ class SweepPlot(QWidget):
             self.plot.set_note(f"{gaps} of {len(ys)} values give no usable design (gaps).")
         else:
             self.plot.set_note("")
-        self.plot.mark_current(result, rate, field, self.sweep_range())
-        self.plot.mark_least(xs, ys, table, "" if field is None else field.unit,
-                             self.least_period_value(), rate)
-        self.plot.mark_conjugate(result, field is None or field.path == PIVOT)
+        self.plot.mark_current(result, rate, field, self.sweep_range(), shown)
+        self.plot.mark_least(xs, ys, table, shown, self.least_period_value(), rate)
+        self.plot.mark_conjugate(result, field is None or field.path == PIVOT, shown)
         finite = ys[np.isfinite(ys)]
         vb = item.vb
         vb.setXRange(float(xs[0]), float(xs[-1]), padding=0.02)

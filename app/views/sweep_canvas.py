@@ -14,6 +14,7 @@ from PySide6.QtCore import Qt
 from PySide6.QtWidgets import QGraphicsEllipseItem, QGraphicsItem, QWidget
 
 from app import theme
+from app.form.units import ReadoutUnit, format_sig
 from app.views.axes import style_axis
 from app.views.base import ResultView
 from app.views.sweep_fields import PIVOT, SweepField
@@ -76,8 +77,9 @@ class SweepCanvas(ResultView):
         self.note.setVisible(bool(text))
 
     def mark_current(self, result: Result, rate: bool, field: SweepField | None,
-                     sweep_range: tuple[float, float]) -> None:
-        """The current value: a line, and a dot at the core's own figure for the design."""
+                     sweep_range: tuple[float, float], unit: ReadoutUnit) -> None:
+        """The current value: a line, and a dot at the core's own figure for the design;
+        its label gives the value in ``unit`` (the display unit; the plot is in SI)."""
         value = 0.0 if field is None else field.value
         here: float | None = result.period_s
         if rate and result.design.target.target_period_s is not None:
@@ -92,7 +94,7 @@ class SweepCanvas(ResultView):
             self.dot.setPos(value, here)
             self.marker_label.setPos(value, here)
             at = ("as designed" if field is None or field.path == PIVOT
-                  else f"now {value:.4g} {field.unit}".rstrip())
+                  else f"now {_shown(value, unit)}")
             self.marker_label.setText(f"{at}: " + (f"{here:+.2f} s/day" if rate
                                                    else f"{here:.6f} s"))
             self.marker_label.setAnchor(self._label_anchor(value, *sweep_range))
@@ -109,8 +111,8 @@ class SweepCanvas(ResultView):
         below = rising == right  # the curve climbs away from the label's side
         return (-0.03 if right else 1.03, -0.1 if below else 1.1)
 
-    def mark_least(self, xs: np.ndarray, ys: np.ndarray, table: SweepTable, unit: str,
-                   least: float | None, rate: bool) -> None:
+    def mark_least(self, xs: np.ndarray, ys: np.ndarray, table: SweepTable,
+                   unit: ReadoutUnit, least: float | None, rate: bool) -> None:
         """For the pivot sweep, the value of least period ``least`` (the core's sample of
         least period, picked out by :meth:`SweepPlot.least_period_value`)."""
         self.least_dot.setVisible(least is not None)
@@ -130,17 +132,22 @@ class SweepCanvas(ResultView):
         across = 0.0 if share < 0.3 else 1.0 if share > 0.7 else 0.5
         self.least_label.setAnchor((across, 1.3) if rate else (across, -0.3))
         self.least_label.setText(f"shortest period {table.period_s[i]:.6f} s "
-                                 f"at {xs[i]:.4g} {unit}".rstrip())
+                                 f"at {_shown(xs[i], unit)}")
 
-    def mark_conjugate(self, result: Result, pivot_sweep: bool) -> None:
+    def mark_conjugate(self, result: Result, pivot_sweep: bool, unit: ReadoutUnit) -> None:
         """For the pivot sweep, the centre of oscillation (the core's figure): hung from
         there, turned over, the pendulum swings with the design's own period (Kater)."""
         self.conjugate.setVisible(pivot_sweep)
         if pivot_sweep:
             at = float(result.centre_of_oscillation_m)
             self.conjugate.setValue(at)
-            self.conjugate_label.setFormat(f"conjugate pivot {at:.4f} m")
+            self.conjugate_label.setFormat(f"conjugate pivot {unit.convert(at):.4f} {unit.text}")
             self.conjugate_label.valueChanged()
+
+
+def _shown(si: float, unit: ReadoutUnit, sig: int = 4) -> str:
+    """An SI value as text in ``unit``: “0.9936 m”, “39.12 in”."""
+    return f"{format_sig(unit.convert(float(si)), sig)} {unit.text}".rstrip()
 
 
 def _dot(colour: str) -> QGraphicsEllipseItem:

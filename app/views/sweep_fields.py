@@ -72,7 +72,7 @@ def default_field(fields: list[SweepField]) -> SweepField:
     """The field swept unless the person chooses: the bob's position where it has one (a
     clamped bob: the rod's length would leave the bob off the rod for half the range), else
     the first field."""
-    return next((f for f in fields if f.label.endswith("Bob centre, below pivot")), fields[0])
+    return next((f for f in fields if f.path.endswith(".mount.centre_m")), fields[0])
 
 
 def _longest_rod_end(design: Design) -> float:

@@ -6,6 +6,7 @@ from typing import TYPE_CHECKING
 
 from PySide6 import QtCore, QtWidgets
 
+from app.form.units import ReadoutUnit
 from app.views.swing_animation import SPEED_LABELS, SPEEDS
 
 if TYPE_CHECKING:
@@ -39,6 +40,7 @@ class SwingPreviewControls(QtWidgets.QWidget):
         self.line_depth.setEnabled(False)
         self.line_depth.setVisible(False)  # shown with the line: the bar keeps its room
         self.narrow = False
+        self._unit = ReadoutUnit("m")  # the depth entry's unit (the preview's axes' unit)
         layout = QtWidgets.QHBoxLayout(self)
         for w in (self.play_button, self.speed_label, self.speed_box,
                   self.line_check, self.line_depth):
@@ -61,16 +63,31 @@ class SwingPreviewControls(QtWidgets.QWidget):
         self.speed_label.setVisible(not narrow)
         self.line_check.setText(LINE_WORDS[1 if narrow else 0])
 
+    def set_unit(self, unit: ReadoutUnit) -> None:
+        """Give the line's depth in ``unit`` (the preview's axes' unit; the line stays put)."""
+        depth_m = self.depth_m()
+        self._unit = unit
+        with QtCore.QSignalBlocker(self.line_depth):
+            self.line_depth.setSuffix(f" {unit.text}")
+            self.line_depth.setMaximum(1000.0 * unit.scale)
+            self.line_depth.setSingleStep({"m": 0.05, "ft": 0.1}.get(unit.text, 1.0))
+            self.line_depth.setValue(unit.convert(depth_m))
+
+    def depth_m(self) -> float:
+        """The depth typed in the entry, m."""
+        return self.line_depth.value() / self._unit.scale
+
     def _on_line_toggled(self, on: bool) -> None:
         self.line_depth.setEnabled(on)
         self.line_depth.setVisible(on)
         if on and self.line_depth.value() <= 0.0:
-            self.line_depth.setValue(round(self.preview.deepest_point_m() + 0.5, 3))
-        self.preview.set_clearance_line(self.line_depth.value() if on else None)
+            depth = self.preview.deepest_point_m() + 0.5  # half a metre under the swing
+            self.line_depth.setValue(round(self._unit.convert(depth), 3))
+        self.preview.set_clearance_line(self.depth_m() if on else None)
 
-    def _on_depth_edited(self, value: float) -> None:
+    def _on_depth_edited(self, _value: float) -> None:
         if self.line_check.isChecked():
-            self.preview.set_clearance_line(value)
+            self.preview.set_clearance_line(self.depth_m())
 
     def _on_playing_changed(self, playing: bool) -> None:
         with QtCore.QSignalBlocker(self.play_button):
@@ -83,7 +100,7 @@ class SwingPreviewControls(QtWidgets.QWidget):
 
     def _on_clearance_changed(self) -> None:
         depth = self.preview.clearance_line_m()
-        if depth is not None and abs(depth - self.line_depth.value()) > 5e-4:
+        if depth is not None and abs(depth - self.depth_m()) > 5e-4:
             with QtCore.QSignalBlocker(self.line_depth):
-                self.line_depth.setValue(depth)
+                self.line_depth.setValue(self._unit.convert(depth))
 

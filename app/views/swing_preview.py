@@ -16,8 +16,8 @@ import pyqtgraph as pg
 from PySide6 import QtCore, QtGui, QtWidgets
 
 from app import theme
-from app.form.units import UnitSystem, figure_text
-from app.views.axes import style_axis
+from app.form.units import ReadoutUnit, UnitSystem, figure_text
+from app.views.axes import drawing_unit, label_length_axes, style_axis
 from app.views.base import DRAG_MARGIN, KEEP_FILL, ResultView
 from app.views.pivot_marks import PivotMarks
 from app.views.swing_animation import (
@@ -35,7 +35,7 @@ from app.views.swing_drawing import (
     cosmetic_pen,
     outlines_from_bodies,
 )
-from app.views.swing_site import SiteMarks
+from app.views.swing_site import LINE_COLOUR, WARNING_COLOUR, SiteMarks, clearance_line
 from core import Result
 from core.analysis import LOAD_CAUTION, SPRING_CAUTION
 
@@ -46,11 +46,10 @@ CAUTION_MARGIN_PX = 24  # the caution wraps this much narrower than the widget
 CAUTION_MIN_WIDTH_PX = 160
 COMPACT_WIDTH_PX = 420  # narrower than this, the figures box is cut to two lines
 INK = theme.INK
-LINE_COLOUR = theme.MARKER
-WARNING_COLOUR = theme.PROBLEM
 CENTRE_PATH_COLOUR = theme.EXACT
 LOWEST_PATH_COLOUR = theme.LINEAR
 NARROW_CONTROLS_PX = 520  # narrower than this, the control bar uses its short words
+AXIS_WORDS = {"left": "Below pivot", "bottom": "Across the swing"}
 SMOOTH_DRAWING = True  # antialiased drawing (benchmarks/gui_bench.py measures its cost)
 
 
@@ -78,6 +77,7 @@ class SwingPreview(ResultView, SwingAnimation):
         super().__init__(parent=parent)
         self.controls: SwingPreviewControls | None = None
         self._system = UnitSystem.METRIC
+        self._unit = ReadoutUnit("m")  # the axes' unit (the scene is drawn in metres)
         self._drawing: Drawing | None = None
         self._ghost: Drawing | None = None
         self._clock: MotionClock | None = None
@@ -97,12 +97,11 @@ class SwingPreview(ResultView, SwingAnimation):
     # ------------------------------------------------------------------ set-up
     def _setup_axes(self) -> None:
         item = self.getPlotItem()
-        item.setLabel("left", "Below pivot", units="m", color=INK)
-        item.setLabel("bottom", "Across the swing", units="m", color=INK)
         for name in ("left", "bottom"):
-            # Both axes stay in metres (no SI prefix): the drawing is to scale. Major ticks
-            # only and opaque grid lines: the fast way to draw a grid (see ``style_axis``).
+            # Both axes in one length unit (no SI prefix): the drawing is to scale. Major
+            # ticks only and opaque grid lines: the fast way to draw a grid (``style_axis``).
             style_axis(item.getAxis(name), color=INK)
+        label_length_axes(item, AXIS_WORDS, self._unit, INK)
         vb = item.getViewBox()
         vb.invertY(True)
         vb.setAspectLocked(True, ratio=1.0)
@@ -122,17 +121,8 @@ class SwingPreview(ResultView, SwingAnimation):
         self._wrap_caution()
 
     def _setup_clearance_line(self) -> None:
-        self._line = pg.InfiniteLine(pos=1.0, angle=0, movable=True,
-                                     pen=cosmetic_pen(LINE_COLOUR, 2.0),
-                                     hoverPen=cosmetic_pen(LINE_COLOUR, 3.0))
-        # under the line at the right edge: the bob and its paths are above a clear line
-        self._line_label = pg.InfLineLabel(self._line, text="", position=0.98,
-                                           anchors=[(1, 0), (1, 0)], color=LINE_COLOUR,
-                                           fill=pg.mkBrush(255, 255, 255, 220))
-        self._line.setZValue(15)
+        self._line, self._line_label = clearance_line(self.getPlotItem().getViewBox())
         self._line.sigPositionChanged.connect(self._on_line_moved)
-        self._line.setVisible(False)
-        self.getPlotItem().getViewBox().addItem(self._line, ignoreBounds=True)
 
     # ------------------------------------------------------------------ public API
     def show_result(self, result: Result, baseline: Result | None = None) -> None:
@@ -148,7 +138,8 @@ class SwingPreview(ResultView, SwingAnimation):
         geometry = result.geometry  # the core's deepest point and reach of the whole body
         self._deepest_m = float(geometry.lowest_point_m if geometry is not None
                                 else result.exhibit.lowest_point_m)
-        self._site.update(result)
+        self._site.update(result, self._text)
+        self._apply_unit()
         self._drawing = self._placed(self._drawing, outlines, ghost=False)
         self.marks.attach(self._drawing.group)
         self.marks.update(result)
@@ -167,7 +158,6 @@ class SwingPreview(ResultView, SwingAnimation):
         self._on_line_moved()
         if self.isVisible():  # the view's transform now, not at the next paint (see plots)
             self.getPlotItem().getViewBox().prepareForPaint()
-
 
     def set_clearance_line(self, depth_m: float | None) -> None:
         """Show a horizontal line (floor, barrier) ``depth_m`` metres below the pivot, or hide
@@ -211,15 +201,11 @@ class SwingPreview(ResultView, SwingAnimation):
 
     def info_text(self) -> str:
         """The figures box as plain text (design name, swing, speed, peak load)."""
-        doc = QtGui.QTextDocument()
-        doc.setHtml(self._info.text)
-        return doc.toPlainText().replace("\n", " ").replace("\u2029", " ")
+        return _plain(self._info.text)
 
     def caution_text(self) -> str:
         """The caution printed under the drawing (the load caution), as plain text."""
-        doc = QtGui.QTextDocument()
-        doc.setHtml(self._caution.text)
-        return doc.toPlainText().replace("\n", " ").replace("\u2029", " ")
+        return _plain(self._caution.text)
 
     def drawn_point(self, name: str) -> tuple[float, float]:
         """Where the centre of part ``name`` is drawn now, (across, below pivot) in metres."""
@@ -355,6 +341,7 @@ class SwingPreview(ResultView, SwingAnimation):
         if self.controls is not None:
             return
         self.controls = SwingPreviewControls(self, parent=self)
+        self.controls.set_unit(self._unit)
         self.control_bar(leading=True, strip=self.controls)
 
     def _fit_strip(self) -> None:
@@ -411,8 +398,23 @@ class SwingPreview(ResultView, SwingAnimation):
     def set_unit_system(self, system: UnitSystem) -> None:
         """Give the figures box and the clearance line's label in ``system``'s units."""
         self._system = system
+        self._apply_unit()
+        if self._result is not None:
+            self._site.update(self._result, self._text)
         self._update_info()
         self._on_line_moved()
+
+    def axis_unit(self) -> ReadoutUnit:
+        """The unit the axes (and the line's depth entry) are given in now."""
+        return self._unit
+
+    def _apply_unit(self) -> None:
+        unit = drawing_unit(self._system, max(self._deepest_m, self.clearance_line_m() or 0.0))
+        if unit != self._unit:
+            self._unit = unit
+            label_length_axes(self.getPlotItem(), AXIS_WORDS, unit, INK)
+            if self.controls is not None:
+                self.controls.set_unit(unit)
 
     def _text(self, si: float, unit: str) -> str:
         return figure_text(si, unit, self._system)
@@ -427,10 +429,8 @@ class SwingPreview(ResultView, SwingAnimation):
         reached = clearance <= 0.0
         colour = WARNING_COLOUR if reached else LINE_COLOUR
         at, gap = self._text(depth, "m"), self._text(abs(clearance), "m")
-        if reached:
-            text = f"Line at {at}: the swing reaches it ({gap} over)"
-        else:
-            text = f"Line at {at} · clearance {gap}"
+        text = (f"Line at {at}: the swing reaches it ({gap} over)" if reached
+                else f"Line at {at} · clearance {gap}")
         self._line.setPen(cosmetic_pen(colour, 2.5 if reached else 2.0))
         self._line_label.setColor(colour)
         self._line_label.setFormat(text.replace("{", "{{").replace("}", "}}"))
@@ -445,3 +445,10 @@ class SwingPreview(ResultView, SwingAnimation):
     def clearance_colour(self) -> str:
         """Colour of the clearance line now (warning colour when reached), '#rrggbb'."""
         return self._line.pen.color().name()
+
+
+def _plain(html: str) -> str:
+    """Rich text as one line of plain text."""
+    doc = QtGui.QTextDocument()
+    doc.setHtml(html)
+    return doc.toPlainText().replace("\n", " ").replace("\u2029", " ")

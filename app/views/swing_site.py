@@ -7,17 +7,35 @@ drawn a fixed 1 m high on the floor: a sign of where the barrier stands, not its
 
 from __future__ import annotations
 
+from collections.abc import Callable
+
 import pyqtgraph as pg
 from PySide6 import QtCore, QtGui, QtWidgets
 
+from app import theme
 from app.views.swing_drawing import cosmetic_pen
 from core import Result
 
-__all__ = ["SiteMarks", "POST_HEIGHT_M"]
+__all__ = ["SiteMarks", "POST_HEIGHT_M", "clearance_line", "LINE_COLOUR", "WARNING_COLOUR"]
 
 POST_HEIGHT_M = 1.0
 FLOOR_COLOUR = "#6b5d40"
 BARRIER_COLOUR = "#7a4b00"
+LINE_COLOUR = theme.MARKER  # the clearance line a person drags
+WARNING_COLOUR = theme.PROBLEM  # ... when the swing reaches it
+
+
+def clearance_line(view: pg.ViewBox) -> tuple[pg.InfiniteLine, pg.InfLineLabel]:
+    """A horizontal line a person can drag (floor, barrier), hidden until asked for, with its
+    label under it at the right edge (the bob and its paths are above a clear line)."""
+    line = pg.InfiniteLine(pos=1.0, angle=0, movable=True, pen=cosmetic_pen(LINE_COLOUR, 2.0),
+                           hoverPen=cosmetic_pen(LINE_COLOUR, 3.0))
+    label = pg.InfLineLabel(line, text="", position=0.98, anchors=[(1, 0), (1, 0)],
+                            color=LINE_COLOUR, fill=pg.mkBrush(255, 255, 255, 220))
+    line.setZValue(15)
+    line.setVisible(False)
+    view.addItem(line, ignoreBounds=True)
+    return line, label
 
 
 class SiteMarks:
@@ -49,8 +67,9 @@ class SiteMarks:
         """Horizontal extent the marks need, m (0: none drawn)."""
         return self._barrier_m * 1.08 if self._barrier_m else 0.0
 
-    def update(self, result: Result) -> None:
-        """Place the floor and the posts of ``result``'s design (or hide them)."""
+    def update(self, result: Result, text: Callable[[float, str], str]) -> None:
+        """Place the floor and the posts of ``result``'s design (or hide them); ``text``
+        gives a figure in SI unit as the window shows it (``figure_text`` in its units)."""
         ex = result.design.exhibit
         g = result.geometry
         floor = None if ex is None else ex.pivot_above_floor_m
@@ -73,11 +92,11 @@ class SiteMarks:
                 x += step
             self.hatch.setPath(path)
             clear = "" if g is None or g.floor_clearance_m is None else \
-                f" · clearance {g.floor_clearance_m:.3f} m"
-            margin = "" if barrier is None else f"<br>Barrier radius {barrier:.3g} m" + (
+                f" · clearance {text(g.floor_clearance_m, 'm')}"
+            margin = "" if barrier is None else f"<br>Barrier radius {text(barrier, 'm')}" + (
                 "" if g is None or g.barrier_margin_m is None else
-                f" · margin {g.barrier_margin_m:.3f} m")
-            self.label.setHtml(f"<div style='font-size:8pt'>Floor {floor:.3g} m below pivot"
+                f" · margin {text(g.barrier_margin_m, 'm')}")
+            self.label.setHtml(f"<div style='font-size:8pt'>Floor {text(floor, 'm')} below pivot"
                                f"{clear}{margin}</div>")
             self.label.setPos(0.0, floor + 0.01 * floor)
             self.label.setVisible(True)
