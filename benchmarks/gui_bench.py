@@ -6,9 +6,10 @@ swing preview on view at once). In each it drags the rod length through successi
 along the path a spin box uses (``stepBy`` → live preview → coalesced analysis → ``setData``
 on the plots on view and the readout), with the analysis on the interface thread and on the
 worker thread alternately (inline, worker, inline, worker: compare within one run, the machine
-may be busy). "Edits per second" counts the steps the drag made; "results shown per second"
-the analyses that reached the screen (on the worker, edits made while an analysis runs are
-coalesced into the next one). Each drag runs twice:
+may be busy); then drags the pivot along the body the same way (each step moves every part),
+once inline and once on the worker. "Edits per second" counts the steps the drag made;
+"results shown per second" the analyses that reached the screen (on the worker, edits made
+while an analysis runs are coalesced into the next one). Each drag runs twice:
 
 - "full repaint": the whole window is repainted after every step (the pessimistic figure:
   the design panel and the readout are redrawn whole each time);
@@ -52,6 +53,8 @@ def main() -> int:
     """Run the drag in each arrangement; print one block of plain lines per arrangement."""
     for arrangement in ARRANGEMENTS:
         bench(arrangement)
+        bench_mode(arrangement, True, "pivot")
+        bench_mode(arrangement, False, "pivot")
     bench_slow()
     bench_preview()
     print()
@@ -102,12 +105,16 @@ def bench(arrangement: str) -> None:
         bench_mode(arrangement, inline)
 
 
-def bench_mode(arrangement: str, inline: bool) -> None:
-    """One drag of ``STEPS`` + ``STEPS`` values; ``inline`` analyses on the interface thread."""
+def bench_mode(arrangement: str, inline: bool, dragged: str = "rod length") -> None:
+    """One drag of ``STEPS`` + ``STEPS`` values; ``inline`` analyses on the interface thread.
+    ``dragged="pivot"`` drags the pivot position (1 mm down the body a step, every part
+    moved) instead of the rod length."""
     from core import analyse
 
     app, window, field = _open_window(arrangement)
     window.analyse_inline = inline
+    if dragged == "pivot":
+        field = window.design_panel.pivot_control.row.field
 
     def drag(steps: int, full_repaint: bool) -> float:
         started = time.perf_counter()
@@ -140,7 +147,7 @@ def bench_mode(arrangement: str, inline: bool) -> None:
     median_analyse_ms = statistics.median(analyse_s) * 1000.0
     full_ms = full_s / STEPS * 1000.0
 
-    print(f"arrangement: {arrangement} (window 1440x900), analysis "
+    print(f"arrangement: {arrangement} (window 1440x900), dragging the {dragged}, analysis "
           f"{'on the interface thread' if inline else 'on the worker'}")
     print(f"steps: {STEPS} + {STEPS}")
     print(f"full updates shown: {updates}")

@@ -28,6 +28,7 @@ from app.form import design_edits
 from app.form.field_rows import ChoiceRow, NumberRow, Row, TextRow
 from app.form.field_text import choice_label, help_of, label_of, window_message
 from app.form.part_editor import PartsSection
+from app.form.pivot_control import PivotControl
 from app.form.suspension_fields import SuspensionSection
 from app.form.units import UnitSystem
 from core import Design, DesignError, Result, design_to_dict
@@ -73,6 +74,8 @@ class DesignPanel(PartsSection, SuspensionSection, QScrollArea):
         self._build_design_group()
         self._build_site_group()
         self._build_suspension_group()
+        self.pivot_control = PivotControl(self.document, self._system, self)
+        self.pivot_control.add_to(self._suspension_form)
         self._build_parts_group()
         self._build_swing_group()
         self._build_target_group()
@@ -249,6 +252,7 @@ class DesignPanel(PartsSection, SuspensionSection, QScrollArea):
         for row in self.all_rows().values():
             if isinstance(row, NumberRow):
                 row.set_unit_system(system)
+        self.pivot_control.set_unit_system(system)
         self._show_spring_figures(self._result)
 
     # ================================================================== widgets → model

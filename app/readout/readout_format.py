@@ -43,6 +43,11 @@ SECTIONS: tuple[tuple[str, tuple[Row, ...]], ...] = (
         ("centre_of_mass_m", "Centre of mass", "m", "{:.6f}"),
         ("inertia_pivot_kg_m2", "Inertia about pivot", "kg·m²", "sig6"),
         ("centre_of_oscillation_m", "Centre of oscillation", "m", "{:.6f}"),
+        ("radius_of_gyration_m", "Radius of gyration", "m", "{:.6f}"),
+        ("shortest_period_pivot_m", "Shortest-period pivot", "m", "{:.6f}"),
+        ("shortest_period_small_s", "Shortest period", "s", "{:.9f}"),
+        ("conjugate_pivot_m", "Conjugate pivot", "m", "{:.6f}"),
+        ("pivot_sensitivity_s_per_day_per_mm", "Pivot 1 mm up the body", "s/day", "{:+.3f}"),
         ("g_m_s2", "Local gravity", "m/s²", "{:.6f}"),
         ("air_density_kg_m3", "Air density", "kg/m³", "{:.4f}"),
     )),
@@ -103,6 +108,19 @@ DESCRIPTIONS: dict[str, str] = {
     "inertia_pivot_kg_m2": "Moment of inertia about the pivot axis",
     "centre_of_oscillation_m": "Centre of oscillation below the pivot, I/(M·h): the length "
                                "of the simple pendulum with the same small-arc period",
+    "radius_of_gyration_m": "Radius of gyration about the centre of mass, √(I/M): how far "
+                            "the mass is spread along the body",
+    "shortest_period_pivot_m": "Height above the centre of mass (not below the pivot) of the "
+                               "pivot that gives the shortest period. Hung near it, the "
+                               "period hardly changes with where the knife edge sits",
+    "shortest_period_small_s": "Small-arc period with the pivot at the shortest-period "
+                               "distance (same site, air and suspension)",
+    "conjugate_pivot_m": "Depth below the centre of mass (not below the pivot) of the other "
+                         "pivot with the same period (the body turned over to hang from it, "
+                         "as a reversible pendulum)",
+    "pivot_sensitivity_s_per_day_per_mm": "Rate change when the pivot moves 1 mm up the body "
+                                          "(every part 1 mm further below it); near zero "
+                                          "close to the shortest-period pivot",
     "g_m_s2": "Gravity at the site (from latitude and elevation, or as given)",
     "air_density_kg_m3": "Density of the air at the site's temperature and pressure",
     "peak_speed_m_s": "Speed of the bob centre as it passes the lowest point",

@@ -19,6 +19,7 @@ from app import theme
 from app.form.units import ReadoutUnit, UnitSystem, figure_text
 from app.views.axes import drawing_unit, label_length_axes, style_axis
 from app.views.base import DRAG_MARGIN, KEEP_FILL, ResultView
+from app.views.pivot_marks import PivotMarks
 from app.views.swing_animation import (
     SPEEDS,
     MotionClock,
@@ -88,6 +89,7 @@ class SwingPreview(ResultView, SwingAnimation):
         self.setAntialiasing(SMOOTH_DRAWING)  # a rotated rod is stair-stepped without it
         self._setup_axes()
         self._envelope = Envelope(self.getPlotItem().getViewBox())
+        self.marks = PivotMarks()
         self._setup_overlay()
         self._setup_clearance_line()
         self._site = SiteMarks(self.getPlotItem().getViewBox())
@@ -139,6 +141,8 @@ class SwingPreview(ResultView, SwingAnimation):
         self._site.update(result, self._text)
         self._apply_unit()
         self._drawing = self._placed(self._drawing, outlines, ghost=False)
+        self.marks.attach(self._drawing.group)
+        self.marks.update(result)
         if baseline is None:
             if self._ghost is not None:
                 self.getPlotItem().getViewBox().removeItem(self._ghost.group)
@@ -217,6 +221,7 @@ class SwingPreview(ResultView, SwingAnimation):
             return drawing
         vb = self.getPlotItem().getViewBox()
         if drawing is not None:
+            self.marks.release(drawing.group)  # the old group's children go with it
             vb.removeItem(drawing.group)
         new = Drawing(outlines, ghost=ghost)
         new.group.setZValue(-5 if ghost else 0)
@@ -285,6 +290,7 @@ class SwingPreview(ResultView, SwingAnimation):
             f"<span style='color:{colour}'>╌╌</span> {name.lower()}"
             for colour, name in zip((CENTRE_PATH_COLOUR, LOWEST_PATH_COLOUR)[-len(
                 self._legend_names):], self._legend_names, strict=True))
+        key += self.marks.key_html()
         ghost = " · grey: pinned baseline" if self._ghost is not None else ""
         if self.compact:
             lines = [f"±{r.amplitude_deg:.3g}° · period {r.period_s:.4f} s · "
