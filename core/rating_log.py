@@ -15,13 +15,11 @@ from __future__ import annotations
 
 import csv
 import io
-import math
 from dataclasses import dataclass
 from datetime import datetime
 from typing import Any, Literal
 
 from .errors import DesignError, guarded
-from .fields import field_spec, range_text
 
 __all__ = ["Reading", "Adjustment", "DecayReading", "RatingLog", "ADJUSTMENT_KINDS",
            "CSV_COLUMNS", "rating_log_from_dict", "rating_log_to_dict", "rating_log_from_csv",
@@ -104,19 +102,17 @@ _CSV_SPEC = {"error_s": "rating_log.readings[].error_s",
 
 
 def _number(path: str, key: str, value: Any) -> float:
-    if isinstance(value, bool) or not isinstance(value, (int, float)):
-        raise DesignError(path, f"must be a number, not {_kind(value)}")
+    """``value`` checked as the number at ``path`` by the design's one number check (its range
+    from the field table); a CSV cell (``path`` its column) is checked against its column's row."""
+    from .validate import check_number  # validate reads this module: imported when first used
+
+    spec_path = path if path.startswith("rating_log") else _CSV_SPEC[key]
     try:
-        x = float(value)
-    except OverflowError:
-        raise DesignError(path, "is too large") from None
-    if not math.isfinite(x):
-        raise DesignError(path, f"must be a finite number, not {x}")
-    spec = field_spec(path if path.startswith("rating_log") else _CSV_SPEC[key])
-    if not spec.contains(x):
-        raise DesignError(path, f"{spec.label} {x:g} is out of range: it must be in "
-                                f"{range_text(spec)}")
-    return x
+        return check_number(spec_path, value)
+    except DesignError as exc:
+        if spec_path == path:
+            raise
+        raise DesignError(path, exc.reason) from None
 
 
 def _text(path: str, value: Any) -> str:

@@ -33,12 +33,12 @@ from PySide6.QtWidgets import (
 )
 
 from app.form.units import UnitSystem, readout_unit
-from app.views.plot_export import export_plot
+from app.views.document_view import DocumentView
 from app.views.rating_edits import design_with_log
 from app.views.rating_figures import figures_html
 from app.views.rating_plots import AllanPlot, ErrorPlot, RateTemperaturePlot
 from app.views.rating_table import RatingTable
-from core import Design, DesignError, Result, rating_log_from_csv, rating_log_to_csv, with_value
+from core import Design, DesignError, rating_log_from_csv, rating_log_to_csv, with_value
 from core.fileformat import write_text_atomic
 from core.rating import Conditions
 from core.rating_log import RatingLog
@@ -48,7 +48,7 @@ from core.rating_report import rating_report
 __all__ = ["RatingView"]
 
 
-class RatingView(QWidget):
+class RatingView(DocumentView, QWidget):
     """The rating log, its fit and the model beside it (see the module notes)."""
 
     title = "Rating"
@@ -160,28 +160,10 @@ class RatingView(QWidget):
         return button
 
     # ------------------------------------------------------------------ the view shape
-    def bind_document(self, document: Any) -> None:
-        """Edit ``document``'s design (an :class:`app.document.document.Document`)."""
-        self.document = document
-        document.designChanged.connect(self._on_design_changed)
-        self._on_design_changed(document.design)
-
-    def show_result(self, result: Result, baseline: Result | None = None) -> None:
-        """Without a document, show ``result``'s design's log (with one, the document's
-        design is followed directly)."""
-        if self.document is None:
-            self._on_design_changed(result.design)
-
-    def attach_controls(self) -> None:
-        """The controls are part of the view."""
-
-    def pose_for_export(self) -> None:
-        """Nothing moves."""
-
     def export(self, path: str | Path) -> Path:
         """Write the view (table, plots and figures) to ``path`` (.png or .svg)."""
         self.fit_now()
-        return export_plot(self, path)
+        return DocumentView.export(self, path)
 
     def set_unit_system(self, system: UnitSystem) -> None:
         """Show temperatures and pressures in ``system`` (the log stays in °C and hPa)."""

@@ -39,11 +39,11 @@ from PySide6.QtWidgets import (
 )
 
 from app.document.settings import app_settings
-from app.views.plot_export import export_plot
+from app.views.document_view import DocumentView
 from app.views.recording_figures import figures_html
 from app.views.recording_plots import IntervalPlot, ResidualPlot, WaveformPlot
 from app.views.recording_worker import RecordingAnalyser, Request, refusal_sentence
-from core import Design, DesignError, Result
+from core import Design, DesignError
 from core.rating_model import fit_model_to_clock, reference_conditions
 
 if TYPE_CHECKING:  # the recording analysis (scipy.signal…) loads when first used
@@ -56,7 +56,7 @@ CHANNELS = (("Channels mixed", None), ("Left channel", 0), ("Right channel", 1))
 LAST_PATH_KEY = "recording/last_path"
 
 
-class RecordingView(QWidget):
+class RecordingView(DocumentView, QWidget):
     """A recording's beat, rate and ticks (see the module notes)."""
 
     title = "Recording"
@@ -183,28 +183,6 @@ class RecordingView(QWidget):
         layout.addWidget(self.message)
 
     # ------------------------------------------------------------------ the view shape
-    def bind_document(self, document: Any) -> None:
-        """Rate against ``document``'s design and edit it (an
-        :class:`app.document.document.Document`)."""
-        self.document = document
-        document.designChanged.connect(self._on_design_changed)
-        self._on_design_changed(document.design)
-
-    def show_result(self, result: Result, baseline: Result | None = None) -> None:
-        """Without a document, rate against ``result``'s design (with one, the document's
-        design is followed directly)."""
-        if self.document is None:
-            self._on_design_changed(result.design)
-
-    def attach_controls(self) -> None:
-        """The controls are part of the view."""
-
-    def pose_for_export(self) -> None:
-        """Nothing moves."""
-
-    def export(self, path: str | Path) -> Path:
-        """Write the view (plots and figures) to ``path`` (.png or .svg)."""
-        return export_plot(self, path)
 
     @property
     def busy(self) -> bool:
