@@ -10,7 +10,6 @@ geometry of the drawn outlines; no physics is computed here.
 from __future__ import annotations
 
 import math
-from html import escape
 
 import pyqtgraph as pg
 from PySide6 import QtCore, QtGui, QtWidgets
@@ -35,9 +34,9 @@ from app.views.swing_drawing import (
     cosmetic_pen,
     outlines_from_bodies,
 )
+from app.views.swing_figures import caution_html, figures_html
 from app.views.swing_site import LINE_COLOUR, WARNING_COLOUR, SiteMarks, clearance_line
 from core import Result
-from core.analysis import LOAD_CAUTION, SPRING_CAUTION
 
 __all__ = ["SwingPreview", "SwingPreviewControls", "Outline", "outlines_from_bodies",
            "SPEEDS", "TimeSource", "WallClock"]
@@ -285,29 +284,14 @@ class SwingPreview(ResultView, SwingAnimation):
         (an export shows them as they are)."""
         if self._result is None:
             return
-        r, e = self._result, self._result.exhibit
+        r = self._result
         key = " · ".join(
             f"<span style='color:{colour}'>╌╌</span> {name.lower()}"
             for colour, name in zip((CENTRE_PATH_COLOUR, LOWEST_PATH_COLOUR)[-len(
                 self._legend_names):], self._legend_names, strict=True))
         key += self.marks.key_html()
         ghost = " · grey: pinned baseline" if self._ghost is not None else ""
-        if self.compact:
-            lines = [f"±{r.amplitude_deg:.3g}° · period {r.period_s:.4f} s · "
-                     f"peak pivot load {self._text(r.max_pivot_load_n, 'N')} (ideal){ghost}"]
-            self._set_info(f"<div style='font-size:8pt'>{'<br>'.join(lines)}</div>")
-            self._set_caution(r)
-            return
-        figures = [f"<b>{escape(r.design.name, quote=False)}</b>",
-                   f"semi-arc ±{r.amplitude_deg:.3g}°", f"period {r.period_s:.4f} s",
-                   f"deepest point {self._text(self._deepest_m, 'm')} below pivot"]
-        if e.sweep_width_m is not None and r.peak_speed_m_s is not None:
-            figures += [f"bob centre sweep {self._text(e.sweep_width_m, 'm')}",
-                        f"peak speed {self._text(r.peak_speed_m_s, 'm/s')}"]
-        load = self._text(r.max_pivot_load_n, "N")
-        figures.append(f"peak pivot load {load} (ideal, no safety factor)")
-        text = " · ".join(figures) + "<br>" + key + ghost
-        self._set_info(f"<div style='font-size:9pt'>{text}</div>")
+        self._set_info(figures_html(r, self._deepest_m, self._text, self.compact, key, ghost))
         self._set_caution(r)
 
     def _set_info(self, html: str) -> None:
@@ -316,11 +300,7 @@ class SwingPreview(ResultView, SwingAnimation):
             self._info.setText(html)
 
     def _set_caution(self, r: Result) -> None:
-        """The core's load and spring cautions where they apply to this design (none for a
-        light clock pendulum on a knife edge)."""
-        cautions = [c for c in r.cautions if c in (LOAD_CAUTION, SPRING_CAUTION)]
-        text = ("<b>Caution.</b> " + "<br>".join(escape(c, quote=False) for c in cautions)
-                if cautions else "")
+        text = caution_html(r)
         if text != self._caution.text:
             self._caution.setText(text)
             self._caution.setVisible(bool(text))
