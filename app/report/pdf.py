@@ -93,17 +93,17 @@ def report_html(result: Result, *, source_name: str | None, date: _dt.date,
         "</body></html>"])
 
 
-def widget_picture(widget: QtWidgets.QWidget) -> QtGui.QPicture:
-    """Record ``widget`` (laid out and sized) as drawing commands: placed in the PDF, lines
-    and text stay vectors (sharp at any zoom, and small)."""
-    picture = QtGui.QPicture()
+def _paint_widget(widget: QtWidgets.QWidget, device: QtGui.QPaintDevice, fill: bool) -> None:
+    """Paint ``widget`` onto ``device`` at its own size (white behind it when ``fill``); a
+    graphics view (every plot) through its scene, other widgets through ``QWidget.render``."""
     size = widget.size()
-    painter = QtGui.QPainter(picture)
+    painter = QtGui.QPainter(device)
     try:
         painter.setRenderHint(QtGui.QPainter.RenderHint.Antialiasing, True)
         painter.setRenderHint(QtGui.QPainter.RenderHint.TextAntialiasing, True)
-        painter.fillRect(QtCore.QRectF(0, 0, size.width(), size.height()),
-                         QtGui.QColor("white"))
+        if fill:
+            painter.fillRect(QtCore.QRectF(0, 0, size.width(), size.height()),
+                             QtGui.QColor("white"))
         if isinstance(widget, QtWidgets.QGraphicsView):
             target = QtCore.QRectF(0, 0, size.width(), size.height())
             QtWidgets.QGraphicsView.render(widget, painter, target, widget.viewport().rect())
@@ -111,6 +111,14 @@ def widget_picture(widget: QtWidgets.QWidget) -> QtGui.QPicture:
             widget.render(painter, QtCore.QPoint())
     finally:
         painter.end()
+
+
+def widget_picture(widget: QtWidgets.QWidget) -> QtGui.QPicture:
+    """Record ``widget`` (laid out and sized) as drawing commands: placed in the PDF, lines
+    and text stay vectors (sharp at any zoom, and small)."""
+    picture = QtGui.QPicture()
+    size = widget.size()
+    _paint_widget(widget, picture, fill=True)
     picture.setBoundingRect(QtCore.QRect(0, 0, size.width(), size.height()))
     return picture
 
@@ -167,17 +175,7 @@ def widget_image(widget: QtWidgets.QWidget, width_px: int = REPORT_IMAGE_WIDTH_P
                          QtGui.QImage.Format.Format_ARGB32)
     image.setDevicePixelRatio(ratio)
     image.fill(QtGui.QColor("white"))
-    painter = QtGui.QPainter(image)
-    try:
-        painter.setRenderHint(QtGui.QPainter.RenderHint.Antialiasing, True)
-        painter.setRenderHint(QtGui.QPainter.RenderHint.TextAntialiasing, True)
-        if isinstance(widget, QtWidgets.QGraphicsView):
-            target = QtCore.QRectF(0, 0, size.width(), size.height())
-            QtWidgets.QGraphicsView.render(widget, painter, target, widget.viewport().rect())
-        else:
-            widget.render(painter, QtCore.QPoint())
-    finally:
-        painter.end()
+    _paint_widget(widget, image, fill=False)
     return image
 
 
