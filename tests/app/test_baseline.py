@@ -41,6 +41,7 @@ def test_delta_column_is_the_exact_difference(window: MainWindow) -> None:
     assert float(text) == pytest.approx(now.rate_s_per_day - base.rate_s_per_day, abs=0.005)
 
 
+@pytest.mark.slow
 def test_window_exports_plots_data_and_report(window: MainWindow, tmp_path) -> None:  # type: ignore[no-untyped-def]
     import csv
 

@@ -64,6 +64,7 @@ def test_an_unknown_view_is_refused_in_one_line(capsys) -> None:  # type: ignore
     assert len(err) == 1 and "nowhere" in err[0]
 
 
+@pytest.mark.slow
 def test_screenshot_of_a_chosen_view(tmp_path: Path) -> None:
     env = {**os.environ, "QT_QPA_PLATFORM": "offscreen"}
     code = "import sys; from app.cli import main; sys.exit(main(sys.argv[1:]))"

@@ -87,6 +87,7 @@ def test_a_quick_analysis_shows_no_computing_notice(window: MainWindow, qtbot) -
     assert COMPUTING_TEXT not in seen and window.compute_label.text() != COMPUTING_TEXT
 
 
+@pytest.mark.slow
 def test_only_the_newest_design_is_analysed_next_and_none_older_is_shown(
         window: MainWindow, qtbot, monkeypatch: pytest.MonkeyPatch) -> None:  # type: ignore[no-untyped-def]
     slow = SlowAnalysis(0.4)
@@ -106,6 +107,7 @@ def test_only_the_newest_design_is_analysed_next_and_none_older_is_shown(
     assert window.result.design == last
 
 
+@pytest.mark.slow
 def test_an_older_result_arriving_after_compute_now_is_dropped(
         window: MainWindow, qtbot, monkeypatch: pytest.MonkeyPatch) -> None:  # type: ignore[no-untyped-def]
     slow = SlowAnalysis(0.5)

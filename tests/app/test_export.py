@@ -87,6 +87,7 @@ def test_pdf_file(exported):
         assert all(f"Figure {i}." in text for i in range(1, 5))
 
 
+@pytest.mark.slow
 def test_export_all_returns_the_written_paths(tmp_path, qapp):
     paths = export_all(ATRIUM, tmp_path)
     assert {p.name for p in paths} == EXPECTED
@@ -115,6 +116,7 @@ def test_unwritable_output_exits_2(tmp_path, capsys):
     assert len(lines) == 2 and all(line.startswith("penduline: out:") for line in lines)
 
 
+@pytest.mark.slow
 def test_export_needs_no_display(tmp_path):
     env = {k: v for k, v in os.environ.items()
            if k not in ("QT_QPA_PLATFORM", "DISPLAY", "WAYLAND_DISPLAY")}

@@ -152,6 +152,7 @@ class TestReadout:
 
 
 class TestPdf:
+    @pytest.mark.slow
     def test_the_report_uses_the_windows_words_and_is_small(self, qapp, tmp_path: Path) -> None:  # type: ignore[no-untyped-def]
         from app.report.export import export_result
 

@@ -7,6 +7,7 @@ import subprocess
 import sys
 from pathlib import Path
 
+import pytest
 from PySide6.QtGui import QImage
 
 ROOT = Path(__file__).resolve().parents[2]
@@ -20,6 +21,7 @@ def _run(*args: str) -> subprocess.CompletedProcess[str]:
                           capture_output=True, text=True, timeout=120)
 
 
+@pytest.mark.slow
 def test_screenshot_writes_a_png_of_the_window(tmp_path: Path) -> None:
     out = tmp_path / "shot.png"
     done = _run(str(EXAMPLE), "--screenshot", str(out))

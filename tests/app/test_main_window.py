@@ -76,6 +76,7 @@ class TestLiveEditing:
         assert window.readout.value_text("trim_s_per_day_per_g") == format_value(
             expected.sensitivities.trim_s_per_day_per_g, "{:+.4f}")
 
+    @pytest.mark.slow
     def test_many_live_updates_keep_the_window_alive(self, window: MainWindow, qtbot) -> None:  # type: ignore[no-untyped-def]
         """≥ 300 live updates through the stepping path (guards a known PySide6 6.12.0 crash
         on Python 3.11, "Fatal Python error: none_dealloc")."""
@@ -344,6 +345,7 @@ class TestFiles:
 
 
 class TestExport:
+    @pytest.mark.slow
     def test_export_plots_writes_valid_png_and_svg(self, window: MainWindow,
                                                    tmp_path: Path) -> None:
         written = window.export_plots(tmp_path / "plots")

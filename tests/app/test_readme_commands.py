@@ -82,7 +82,24 @@ def test_the_readme_has_commands_to_run() -> None:
     assert {shlex.split(line)[1] for line in lines} >= {"report", "solve", "sweep", "export"}
 
 
-@pytest.mark.parametrize("line", [v for line in readme_commands() for v in _variants(line)])
+def _quick_or_slow(lines: list[str]) -> list[object]:
+    """Each line as a case. The exports (each renders plots and a PDF; `export` also runs in
+    ``test_export.py``'s quick tests) and the window drawings after the first are marked
+    ``slow``: the quick tier keeps every other command and one window, the full suite runs
+    them all."""
+    seen: set[str] = set()
+    cases: list[object] = []
+    for line in lines:
+        words = shlex.split(line)[1:]
+        kind = "window" if not words or words[0] not in COMMANDS else words[0]
+        heavy = kind == "export" or (kind == "window" and kind in seen)
+        cases.append(pytest.param(line, marks=pytest.mark.slow) if heavy else line)
+        seen.add(kind)
+    return cases
+
+
+@pytest.mark.parametrize("line", _quick_or_slow(
+    [v for line in readme_commands() for v in _variants(line)]))
 def test_readme_command_exits_0(line: str, tmp_path: Path, capsys) -> None:  # type: ignore[no-untyped-def]
     argv = _argv(line, tmp_path)
     try:

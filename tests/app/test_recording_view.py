@@ -195,6 +195,7 @@ class TestWorker:
         assert view.analysis.beat_s == pytest.approx(0.75, rel=1e-5)  # the spec's beat
         assert not view.busy_bar.isVisibleTo(view)
 
+    @pytest.mark.slow
     def test_a_newer_request_supersedes_an_older_one(  # type: ignore[no-untyped-def]
             self, qtbot, window, long_recording) -> None:
         view = recording_view(window)

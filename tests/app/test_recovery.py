@@ -163,6 +163,7 @@ class TestAutosave:
         assert load_design(signal.args[0]) == edited  # not the 1 h interval: the short delay
         saver.close()
 
+    @pytest.mark.slow
     def test_edits_in_quick_succession_are_written_once_after_the_last(
             self, qtbot, folder: Path) -> None:  # type: ignore[no-untyped-def]
         document = Document(load_design(EXAMPLE))
@@ -274,6 +275,7 @@ class TestCleanExit:
 
 
 class TestRecovery:
+    @pytest.mark.slow
     def test_restore_after_a_real_crash(self, make_window, folder: Path,  # type: ignore[no-untyped-def]
                                         example_copy: Path, data_dir: Path) -> None:
         code = (
@@ -313,6 +315,7 @@ class TestRecovery:
         assert load_design(example_copy) == doc.design and not doc.is_dirty
         assert [n for n in _files(folder) if not n.endswith(".lock")] == []
 
+    @pytest.mark.slow
     def test_a_window_killed_seconds_after_an_edit_gives_the_edit_back(
             self, make_window, folder: Path, example_copy: Path, data_dir: Path) -> None:  # type: ignore[no-untyped-def]
         code = (

@@ -79,6 +79,7 @@ class TestIssueCase:
         assert a.rejected == 1 and abs(a.rejected_times_s[0] - 31.41) < 0.01
         assert a.timing_scatter_s < 50e-6
 
+    @pytest.mark.slow
     def test_sigma_consistent_with_repeated_trials(self) -> None:
         beats, sigmas, asym, asym_sigmas = [], [], [], []
         for seed in range(100, 124):

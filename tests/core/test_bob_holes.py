@@ -123,7 +123,8 @@ class TestHoledShapes:
         check_body(got, minus(whole, bore_of_flat(0.075, hole / 2, 0.03, False, 0.8)),
                    rho("lead"))
 
-    @pytest.mark.parametrize("hole", [0.012, 0.06], ids=["inside the faces", "through them"])
+    @pytest.mark.parametrize("hole", [0.012, pytest.param(0.06, marks=pytest.mark.slow)],
+                             ids=["inside the faces", "through them"])
     def test_lens(self, hole: float) -> None:
         b = holed(bob("lens", material="brass", diameter_m=0.2, thickness_m=0.04,
                       mount=clamp(centre_m=0.85)), hole)

@@ -43,7 +43,7 @@ def _turning_points(inertia: float, torque: float, k: float, theta0: float, q: f
 
 
 class TestTimeToHalfArc:
-    @pytest.mark.parametrize("q", [300.0, 1000.0])
+    @pytest.mark.parametrize("q", [300.0, pytest.param(1000.0, marks=pytest.mark.slow)])
     def test_120_deg_against_damped_equation(self, q: float) -> None:
         # Reference: solve_ivp of the damped nonlinear equation from rest at 120°; the arc at
         # each turning point, interpolated in log(arc) between the two that bracket 60°.

@@ -304,8 +304,10 @@ def _decay(q: float, a0_deg: float, period_small_s: float, cycles_of_q: float,
     return [DecayReading(float(times[i]), float(arcs[i])) for i in pick]
 
 
-@pytest.mark.parametrize("q, a0, span", [(300.0, 120.0, 2.0), (150.0, 150.0, 2.0),
-                                         (2000.0, 90.0, 1.0), (4000.0, 1.6, 0.4)])
+@pytest.mark.parametrize("q, a0, span", [  # the two long decays run in the full suite only
+    (300.0, 120.0, 2.0), (150.0, 150.0, 2.0),
+    pytest.param(2000.0, 90.0, 1.0, marks=pytest.mark.slow),
+    pytest.param(4000.0, 1.6, 0.4, marks=pytest.mark.slow)])
 def test_quality_factor_from_a_large_arc_decay(q: float, a0: float, span: float) -> None:
     decay = _decay(q, a0, 2.0, span, 25)
     fit = fit_quality_factor(decay, 2.0)

@@ -270,6 +270,7 @@ _JSON = st.recursive(_SCALARS, lambda inner: st.one_of(
     max_leaves=20)
 
 
+@pytest.mark.slow
 @settings(max_examples=150, deadline=None, derandomize=True, database=None)
 @given(_JSON)
 def test_any_json_gives_a_log_or_a_design_error(raw: Any) -> None:
@@ -279,6 +280,7 @@ def test_any_json_gives_a_log_or_a_design_error(raw: Any) -> None:
         assert err.field.startswith("rating_log")
 
 
+@pytest.mark.slow
 @settings(max_examples=150, deadline=None, derandomize=True, database=None)
 @given(st.lists(st.lists(st.one_of(_SCALARS.map(str), st.sampled_from(
     ["1.5", "-0.2", "20", "1e400", "nan", ""])), max_size=10), max_size=6))

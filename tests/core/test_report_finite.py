@@ -78,6 +78,7 @@ EXTREME_TARGETS = [{"beats_per_hour": 1e-200}, {"beats_per_hour": 1e-3}, {"beats
 
 
 class TestEveryFigureFinite:
+    @pytest.mark.slow
     def test_fuzz_campaign(self) -> None:
         counts: Counter[str] = Counter()
 

@@ -72,8 +72,10 @@ CASES = [
     # (design, field path, value used to make the target)
     (clamped, "parts[1].mount.centre_m", 0.97),            # bob centre
     (lambda: load_design(EXAMPLE), "parts[0].length_m", 1.12),  # rod length (bob on sleeve)
-    (lambda: load_design(EXAMPLE), "parts[1].length_m", 0.07),  # compensating sleeve length
-    (lambda: load_design(EXAMPLE), "parts[3].mass_kg", 0.02),   # trim mass
+    pytest.param(lambda: load_design(EXAMPLE), "parts[1].length_m", 0.07,
+                 marks=pytest.mark.slow),                   # compensating sleeve length
+    pytest.param(lambda: load_design(EXAMPLE), "parts[3].mass_kg", 0.02,
+                 marks=pytest.mark.slow),                   # trim mass
     (sprung, "suspension.stiffness_n_m_per_rad", 0.05),     # suspension spring stiffness
 ]
 
@@ -365,6 +367,7 @@ class TestTwoFields:
                     Targets(null_temperature=True))
         meets_both(sol.design, 2.0)
 
+    @pytest.mark.slow
     def test_workshop_regulator_has_no_null_in_air(self) -> None:
         # Invar rod with a cast-iron bob resting on a steel sleeve: the bob's own upward growth
         # and the warmer, thinner air already make it gain when warm (+0.005 s/day/K even with

@@ -74,6 +74,7 @@ class TestSolveCommand:
         # 3750 beats per hour: a period of 7200/3750 = 1.92 s (DESIGN §4)
         assert analyse(load_design(out_file)).period_s == pytest.approx(1.92, rel=1e-12)
 
+    @pytest.mark.slow
     def test_no_solution_exit_2(self, capsys: pytest.CaptureFixture[str]) -> None:
         code, out, err = run(capsys, "solve", str(REGULATOR), "--vary", "parts[0].length_m",
                              "--vary", "parts[1].length_m", "--null", "temperature")
