@@ -184,14 +184,16 @@ class TestBudgetRanges:
         assert (line.low, line.high) == (site - 50.0, site + 50.0)
         later.document.undo_stack.setClean()
 
-    def test_unusable_stored_ranges_fall_back_to_the_defaults(self, window: MainWindow,
+    def test_unusable_stored_ranges_fall_back_to_the_defaults(self, example_copy: Path,
                                                               qtbot) -> None:  # type: ignore[no-untyped-def]
+        app_settings().clear()  # as the window fixture does; the two windows below suffice
+        design = load_design(example_copy)
         app_settings().setValue("budget/temperature_k", "warm")
-        later = MainWindow(window.document.design)
+        later = MainWindow(design)
         qtbot.addWidget(later)
         assert later.budget_ranges() == BudgetRanges()
         app_settings().setValue("budget/temperature_k", -3.0)
-        again = MainWindow(window.document.design)
+        again = MainWindow(design)
         qtbot.addWidget(again)
         assert again.budget_ranges() == BudgetRanges()
 
