@@ -68,7 +68,7 @@ class MainWindow(WindowMenus, WindowComputing, WindowFiles, WindowLayout, QMainW
         :mod:`app.document.recovery`)."""
         super().__init__()
         self._remember = remember_layout
-        self.setStyleSheet(theme.STYLE_SHEET)
+        theme.colour_window(self)  # the style sheet goes on the readout and the plots only
         self.setAcceptDrops(True)
         self.document = Document(design if design is not None else blank_design(), path, self)
         self.result: Result | None = None
@@ -112,6 +112,8 @@ class MainWindow(WindowMenus, WindowComputing, WindowFiles, WindowLayout, QMainW
         self.plot_area = PlotArea(cast(list[QWidget], self.plots), DEFAULT_ARRANGEMENT)
         self.plot_area.tabs.currentChanged.connect(lambda _index: self._refresh_plots())
         self.readout = ReadoutPanel(self._system)
+        for styled in (self.plot_area, self.readout):  # not the design panel: see app.theme
+            styled.setStyleSheet(theme.STYLE_SHEET)
         self.readout.set_budget_ranges(self._budget_ranges)
         self.splitter = QSplitter(Qt.Orientation.Horizontal)
         self.splitter.setChildrenCollapsible(False)
@@ -126,7 +128,7 @@ class MainWindow(WindowMenus, WindowComputing, WindowFiles, WindowLayout, QMainW
         self.splitter.setSizes([360, 710, 370])
         self.setCentralWidget(self.splitter)
         self.compute_label = QLabel()
-        self.compute_label.setProperty("role", "hint")
+        theme.set_role(self.compute_label, "hint")
         self.statusBar().addPermanentWidget(self.compute_label)
 
     def show_message(self, title: str, text: str) -> None:
