@@ -201,7 +201,7 @@ def _show_view(window: object, view: str) -> None:
         area.set_arrangement("grid")
         area.show_plot(0)
         return
-    index = next(i for i, plot in enumerate(area.plots) if plot.slug == view)
+    index = next(i for i, cls in enumerate(area.plots.classes) if cls.slug == view)
     area.set_arrangement("tabs")
     area.show_plot(index)
 
