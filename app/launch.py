@@ -171,13 +171,13 @@ def first_window(app: QApplication, name: str, remember_layout: bool = True) -> 
     from PySide6.QtCore import QByteArray, QEventLoop, QSettings, Qt
     from PySide6.QtWidgets import QLabel, QMainWindow
 
-    from app.theme import STYLE_SHEET
+    from app.theme import colour_window, set_role
 
     shell = QMainWindow()
-    shell.setStyleSheet(STYLE_SHEET)
+    colour_window(shell)
     shell.setWindowTitle(f"{name} — Penduline")
     label = QLabel(f"Opening {name}…")
-    label.setProperty("role", "hint")
+    set_role(label, "hint")
     label.setAlignment(Qt.AlignmentFlag.AlignCenter)
     shell.setCentralWidget(label)
     geometry = None
@@ -201,7 +201,7 @@ def _show_view(window: object, view: str) -> None:
         area.set_arrangement("grid")
         area.show_plot(0)
         return
-    index = next(i for i, plot in enumerate(area.plots) if plot.slug == view)
+    index = next(i for i, cls in enumerate(area.plots.classes) if cls.slug == view)
     area.set_arrangement("tabs")
     area.show_plot(index)
 

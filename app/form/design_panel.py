@@ -16,17 +16,18 @@ from typing import Any
 from PySide6.QtCore import Qt, Signal
 from PySide6.QtWidgets import (
     QFormLayout,
-    QGroupBox,
     QLabel,
     QScrollArea,
     QVBoxLayout,
     QWidget,
 )
 
+from app import theme
 from app.document.document import Document
 from app.form import design_edits
 from app.form.field_rows import ChoiceRow, NumberRow, Row, TextRow
 from app.form.field_text import choice_label, help_of, label_of, window_message
+from app.form.panel_group import PanelGroup
 from app.form.part_editor import PartsSection
 from app.form.pivot_control import PivotControl
 from app.form.suspension_fields import SuspensionSection
@@ -87,7 +88,7 @@ class DesignPanel(PartsSection, SuspensionSection, QScrollArea):
 
     # ================================================================== building
     def _group(self, title: str) -> QFormLayout:
-        box = QGroupBox(title)
+        box = PanelGroup(title)
         form = QFormLayout(box)
         form.setContentsMargins(8, 6, 8, 6)
         form.setHorizontalSpacing(8)
@@ -145,7 +146,7 @@ class DesignPanel(PartsSection, SuspensionSection, QScrollArea):
         self._number(form, "site.temperature_c")
         self._number(form, "site.pressure_hpa")
         hint = QLabel("Air pressure 0 means the pendulum swings in vacuum.")
-        hint.setProperty("role", "hint")
+        theme.set_role(hint, "hint")
         hint.setWordWrap(True)
         form.addRow(hint)
 

@@ -21,6 +21,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
+from app import theme
 from app.form.number_field import NumberField
 from app.form.units import UnitSystem, field_unit, format_sig
 
@@ -41,7 +42,7 @@ class Row(QWidget):
         self.line.setSpacing(6)
         outer.addLayout(self.line)
         self.problem_label = QLabel(self)
-        self.problem_label.setProperty("role", "problem")
+        theme.set_role(self.problem_label, "problem")
         self.problem_label.setWordWrap(True)
         self.problem_label.setVisible(False)
         self.problem_label.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
@@ -66,9 +67,7 @@ class Row(QWidget):
         if isinstance(widget, NumberField):
             widget.set_problem(message)
         elif bool(widget.property("invalid")) != bool(message):
-            widget.setProperty("invalid", bool(message))
-            widget.style().unpolish(widget)
-            widget.style().polish(widget)
+            theme.mark_invalid(widget, bool(message))
 
     def problem(self) -> str:
         """The refusal sentence shown ("" when none)."""
@@ -109,7 +108,7 @@ class NumberRow(Row):
         self.field.setAccessibleName(path)
         self.field.lineEdit().setPlaceholderText(placeholder)
         self.unit_label = QLabel(self)
-        self.unit_label.setProperty("role", "unit")
+        theme.set_role(self.unit_label, "unit")
         self.unit_label.setMinimumWidth(34)
         self.line.addWidget(self.field, 1)
         self.line.addWidget(self.unit_label)

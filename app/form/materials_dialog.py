@@ -27,6 +27,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
+from app import theme
 from app.document.document import Document
 from app.form.material_edits import (
     MaterialValues,
@@ -61,6 +62,7 @@ class MaterialsDialog(QDialog):
         super().__init__(parent)
         self.setWindowTitle("Your materials")
         self.setObjectName("MaterialsDialog")
+        self.setStyleSheet(theme.STYLE_SHEET)  # the window itself carries none (app.theme)
         self.document = document
         self._editing: str | None = None  # key of the material shown; None: a new one
         outer = QVBoxLayout(self)
@@ -70,7 +72,7 @@ class MaterialsDialog(QDialog):
         outer.addLayout(top)
         outer.addWidget(self._build_measured())
         self.problem = QLabel()
-        self.problem.setProperty("role", "problem")
+        theme.set_role(self.problem, "problem")
         self.problem.setWordWrap(True)
         self.problem.setVisible(False)
         outer.addWidget(self.problem)
@@ -87,6 +89,7 @@ class MaterialsDialog(QDialog):
         col = QVBoxLayout()
         col.addWidget(QLabel("Materials of this design"))
         self.list = QListWidget()
+        theme.colour_list(self.list)
         self.list.setAccessibleName("your materials")
         self.list.currentRowChanged.connect(self._on_selected)
         col.addWidget(self.list, 1)
@@ -135,7 +138,7 @@ class MaterialsDialog(QDialog):
                       "built-in material, under a new key, with the expansion you measured "
                       "for the stock in hand (density and Young's modulus are copied).")
         note.setWordWrap(True)
-        note.setProperty("role", "hint")
+        theme.set_role(note, "hint")
         form.addRow(note)
         self.builtin_combo = QComboBox()
         self.builtin_combo.setAccessibleName("built-in material")

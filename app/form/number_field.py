@@ -16,6 +16,7 @@ from PySide6.QtCore import QSize, Qt, QTimer, Signal
 from PySide6.QtGui import QFocusEvent, QKeyEvent, QMouseEvent, QValidator, QWheelEvent
 from PySide6.QtWidgets import QAbstractSpinBox, QWidget
 
+from app import theme
 from app.form.units import FieldUnit, format_sig
 
 __all__ = ["NumberField", "NumberTextError", "parse_number", "format_number"]
@@ -149,10 +150,8 @@ class NumberField(QAbstractSpinBox):
         if message == self._problem:
             return
         self._problem = message
-        self.setProperty("invalid", bool(message))
+        theme.mark_invalid(self, bool(message))
         self.setToolTip(message or self._help)
-        self.style().unpolish(self)
-        self.style().polish(self)
         self.problemChanged.emit(message)
 
     # ------------------------------------------------------------------ stepping

@@ -9,7 +9,6 @@ from typing import TYPE_CHECKING, Any
 from PySide6.QtCore import QSignalBlocker, Qt
 from PySide6.QtWidgets import (
     QFormLayout,
-    QGroupBox,
     QHBoxLayout,
     QLabel,
     QListWidget,
@@ -20,9 +19,11 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
+from app import theme
 from app.form import design_edits
 from app.form.field_rows import Row
 from app.form.material_edits import material_choices
+from app.form.panel_group import PanelGroup
 from core import Design, DesignError, Result
 from core.fields import choice_label
 
@@ -68,10 +69,11 @@ class PartsSection:
         def _build_bob_extras(self, part: Any, at: str) -> None: ...
 
     def _build_parts_group(self) -> None:
-        box = QGroupBox("Parts")
+        box = PanelGroup("Parts")
         outer = QVBoxLayout(box)
         outer.setContentsMargins(8, 6, 8, 6)
         self.parts_list = QListWidget()
+        theme.colour_list(self.parts_list)
         self.parts_list.setAccessibleName("parts")
         self.parts_list.setMaximumHeight(112)
         self.parts_list.currentRowChanged.connect(self._on_part_selected)
@@ -91,7 +93,7 @@ class PartsSection:
         buttons.addStretch(1)
         outer.addLayout(buttons)
         self.parts_problem = QLabel()
-        self.parts_problem.setProperty("role", "problem")
+        theme.set_role(self.parts_problem, "problem")
         self.parts_problem.setWordWrap(True)
         self.parts_problem.setVisible(False)
         outer.addWidget(self.parts_problem)

@@ -15,6 +15,7 @@ from typing import TYPE_CHECKING, Any
 from PySide6.QtCore import QSignalBlocker
 from PySide6.QtWidgets import QFormLayout, QLabel, QWidget
 
+from app import theme
 from app.form import mounting_edits
 from app.form.field_rows import ChoiceRow, Row
 from app.form.material_edits import material_choices
@@ -116,7 +117,7 @@ class SuspensionSection:
         form.addRow(self.spring_figures)
         self.spring_caution = QLabel(_SHORT_CAUTION)
         self.spring_caution.setToolTip(SPRING_STRESS_CAUTION)
-        self.spring_caution.setProperty("role", "hint")
+        theme.set_role(self.spring_caution, "hint")
         self.spring_caution.setWordWrap(True)
         form.addRow(self.spring_caution)
 

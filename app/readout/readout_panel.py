@@ -27,6 +27,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
+from app import theme
 from app.form.number_field import NumberField
 from app.form.units import ReadoutUnit, UnitSystem, field_unit, readout_unit
 from app.readout.cells import TreeCells, budget_rows, convert, delta_text
@@ -95,7 +96,7 @@ class ReadoutPanel(QWidget):
         layout.addWidget(self.compute_problem)
         layout.addLayout(self._build_trim_row())
         self.trim_problem = QLabel()
-        self.trim_problem.setProperty("role", "problem")
+        theme.set_role(self.trim_problem, "problem")
         self.trim_problem.setWordWrap(True)
         self.trim_problem.setVisible(False)
         layout.addWidget(self.trim_problem)
@@ -126,9 +127,9 @@ class ReadoutPanel(QWidget):
                                    "rate change of 1 g of trim weight.")
         self.trim_field.changed.connect(self._on_trim_changed)
         self.trim_unit = QLabel(self.trim_field.unit().text)
-        self.trim_unit.setProperty("role", "unit")
+        theme.set_role(self.trim_unit, "unit")
         below = QLabel("below pivot")
-        below.setProperty("role", "hint")
+        theme.set_role(below, "hint")
         label.setBuddy(self.trim_field)
         row.addWidget(label)
         row.addWidget(self.trim_field, 1)
@@ -145,7 +146,7 @@ class ReadoutPanel(QWidget):
         column.setSpacing(3)
         column.addWidget(self.tree, 1)
         self.budget_problem = QLabel()
-        self.budget_problem.setProperty("role", "problem")
+        theme.set_role(self.budget_problem, "problem")
         self.budget_problem.setWordWrap(True)
         self.budget_problem.setVisible(False)
         self.budget_problem.setTextInteractionFlags(
@@ -159,6 +160,7 @@ class ReadoutPanel(QWidget):
         tree.setHeaderLabels(list(_COLUMNS))
         tree.setRootIsDecorated(False)
         tree.setAlternatingRowColors(True)
+        theme.colour_list(tree)
         # Rows are as tall as their text, the budget's range rows as tall as an entry; new
         # texts do not measure rows again (see :class:`app.readout.cells.TreeCells`).
         tree.setUniformRowHeights(False)

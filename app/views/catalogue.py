@@ -1,5 +1,6 @@
 """The one list of views: the tabs, the "All plots" grid, File ▸ Export and the headless
-exporter all read :data:`VIEWS`.
+exporter all read :data:`VIEWS`. The window makes each view when it first comes on view
+(:class:`app.views.view_list.ViewList`).
 
 To add a view, subclass :class:`app.views.base.ResultView` (or follow
 :class:`app.views.base.View`), give it a ``title``, a ``slug`` and a ``caption`` and implement
@@ -20,7 +21,7 @@ from app.views.recording_view import RecordingView
 from app.views.sweep import SweepPlot
 from app.views.swing_preview import SwingPreview
 
-__all__ = ["VIEWS", "PLOT_CLASSES", "make_views", "report_views"]
+__all__ = ["VIEWS", "PLOT_CLASSES", "report_views"]
 
 VIEWS: tuple[type[View], ...] = (MotionPlot, PhasePlot, PeriodCurvePlot, SwingPreview,
                                  PlanView, SweepPlot, RatingView, RecordingView)
@@ -28,11 +29,6 @@ VIEWS: tuple[type[View], ...] = (MotionPlot, PhasePlot, PeriodCurvePlot, SwingPr
 
 PLOT_CLASSES = (MotionPlot, PhasePlot, PeriodCurvePlot)
 """The chart views (curves on axes), for tests and benchmarks that treat them alike."""
-
-
-def make_views() -> list[View]:
-    """One of each view, in :data:`VIEWS` order."""
-    return [cls() for cls in VIEWS]
 
 
 def report_views() -> list[View]:

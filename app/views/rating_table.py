@@ -15,6 +15,7 @@ from PySide6.QtCore import QAbstractTableModel, QModelIndex, QPersistentModelInd
 from PySide6.QtGui import QBrush, QColor, QGuiApplication, QKeySequence, QShortcut
 from PySide6.QtWidgets import QAbstractItemView, QHeaderView, QTableView, QWidget
 
+from app import theme
 from app.form.units import UnitSystem, readout_unit
 from app.views import rating_edits as edits
 from core import DesignError
@@ -133,6 +134,7 @@ class RatingTable(QTableView):
         self.setModel(self.table_model)
         self.table_model.cellEdited.connect(self._on_cell_edited)
         self.setAlternatingRowColors(True)
+        theme.colour_list(self)
         self.setSelectionBehavior(QAbstractItemView.SelectionBehavior.SelectRows)
         self.setEditTriggers(QAbstractItemView.EditTrigger.DoubleClicked
                              | QAbstractItemView.EditTrigger.EditKeyPressed

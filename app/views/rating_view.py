@@ -32,6 +32,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
+from app import theme
 from app.form.units import UnitSystem, readout_unit
 from app.views.document_view import DocumentView
 from app.views.rating_edits import design_with_log
@@ -101,7 +102,7 @@ class RatingView(DocumentView, QWidget):
 
         self.message = QLabel()
         self.message.setWordWrap(True)
-        self.message.setProperty("role", "hint")
+        theme.set_role(self.message, "hint")
         self.figures = QLabel()
         self.figures.setWordWrap(True)
         self.figures.setTextFormat(Qt.TextFormat.RichText)

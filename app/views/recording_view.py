@@ -38,6 +38,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
+from app import theme
 from app.document.settings import app_settings
 from app.views.document_view import DocumentView
 from app.views.recording_figures import figures_html
@@ -98,7 +99,7 @@ class RecordingView(DocumentView, QWidget):
         self.channel_box.setEnabled(False)
         self.channel_box.currentIndexChanged.connect(lambda _i: self._channel_changed())
         self.file_label = QLabel("No recording")
-        self.file_label.setProperty("role", "hint")
+        theme.set_role(self.file_label, "hint")
         self.busy_bar = QProgressBar()
         self.busy_bar.setRange(0, 0)  # busy: no measure of progress
         self.busy_bar.setMaximumWidth(120)
@@ -130,7 +131,7 @@ class RecordingView(DocumentView, QWidget):
         self.tick_spin.setToolTip("Step through the ticks (or click a point in the plots)")
         self.tick_spin.valueChanged.connect(lambda v: self.choose_tick(v - 1))
         self.tick_of = QLabel("")
-        self.tick_of.setProperty("role", "hint")
+        theme.set_role(self.tick_of, "hint")
         wave_box = QWidget()
         wave_layout = QVBoxLayout(wave_box)
         wave_layout.setContentsMargins(0, 0, 0, 0)
@@ -174,7 +175,7 @@ class RecordingView(DocumentView, QWidget):
 
         self.message = QLabel()
         self.message.setWordWrap(True)
-        self.message.setProperty("role", "hint")
+        theme.set_role(self.message, "hint")
         layout = QVBoxLayout(self)
         layout.setContentsMargins(0, 0, 0, 4)
         layout.setSpacing(2)

@@ -108,7 +108,7 @@ class SweepPlot(QWidget):
         self.start_box.setToolTip("First value of the sweep")
         self.stop_box.setToolTip("Last value of the sweep")
         self.unit_label = QLabel()
-        self.unit_label.setProperty("role", "unit")
+        theme.set_role(self.unit_label, "unit")
         self.reset_button = QPushButton("Default range")
         self.reset_button.setToolTip("±20 % around the current value (the pivot: from just "
                                      "above the rod's top to near its end)")

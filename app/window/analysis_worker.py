@@ -40,7 +40,10 @@ def _job(relay: _Relay, generation: int, key: object, analyse: Analyse,
             outcome = analyse(*args, **kwargs)
         except Exception as exc:  # handed to the window, which says what went wrong
             outcome = exc
-        relay.done.emit(generation, key, outcome, (time.perf_counter() - started) * 1000.0)
+        try:
+            relay.done.emit(generation, key, outcome, (time.perf_counter() - started) * 1000.0)
+        except RuntimeError:  # the application is gone (quit while this ran): nobody to tell
+            pass
 
     return run
 

@@ -241,7 +241,7 @@ class WindowComputing(WindowParts):
         self.unit_actions[system].setChecked(True)
         self.design_panel.set_unit_system(system)
         self.readout.set_unit_system(system)
-        for view in self.plots:
+        for view in self.plots.made_views():  # the others take the units when made
             if hasattr(view, "set_unit_system"):  # the rating view; the swing preview
                 view.set_unit_system(system)
         self._reshow_problem()

@@ -22,7 +22,7 @@ def focus_for_purpose(window: Any, result: Result) -> None:
     window._purpose_shown = result.purpose
     if result.purpose != "exhibit" or last == "exhibit":
         return
-    for index, view in enumerate(window.plots):
-        if getattr(view, "slug", "") == PREVIEW_SLUG:
+    for index, cls in enumerate(window.plots.classes):
+        if getattr(cls, "slug", "") == PREVIEW_SLUG:
             window.plot_area.show_plot(index)
             return

@@ -24,8 +24,10 @@ from app.document.settings import stored_budget_ranges
 from app.form.design_panel import DesignPanel
 from app.form.units import UnitSystem
 from app.readout.readout_panel import ReadoutPanel
-from app.views.catalogue import make_views
+from app.views.base import View
+from app.views.catalogue import VIEWS
 from app.views.plot_area import PlotArea
+from app.views.view_list import ViewList
 from app.window.computing import WindowComputing
 from app.window.files import DESIGN_FILTER, WindowFiles, example_files, examples_folder
 from app.window.layout import DEFAULT_ARRANGEMENT, WindowLayout, stored_units
@@ -68,7 +70,7 @@ class MainWindow(WindowMenus, WindowComputing, WindowFiles, WindowLayout, QMainW
         :mod:`app.document.recovery`)."""
         super().__init__()
         self._remember = remember_layout
-        self.setStyleSheet(theme.STYLE_SHEET)
+        theme.colour_window(self)  # the style sheet goes on the readout and the plots only
         self.setAcceptDrops(True)
         self.document = Document(design if design is not None else blank_design(), path, self)
         self.result: Result | None = None
@@ -99,19 +101,14 @@ class MainWindow(WindowMenus, WindowComputing, WindowFiles, WindowLayout, QMainW
 
     def _build_views(self) -> None:
         self.design_panel = DesignPanel(self.document, self._system)
-        self.plots = make_views()
-        for view in self.plots:
-            view.attach_controls()  # on-screen controls (the swing preview's play, speed, line)
-            bind, set_units = (getattr(view, name, None)
-                               for name in ("bind_document", "set_unit_system"))
-            if bind is not None:  # a view that edits the design (the rating log)
-                bind(self.document)
-            if set_units is not None:
-                set_units(self._system)
-        self._stale_plots: set[int] = set()
-        self.plot_area = PlotArea(cast(list[QWidget], self.plots), DEFAULT_ARRANGEMENT)
+        self.plots: ViewList[View] = ViewList(VIEWS)  # each made when first on view
+        self.plots.when_made(self._prepare_view)
+        self._stale_plots: set[int] = set(range(len(self.plots)))
+        self.plot_area = PlotArea(cast(ViewList[QWidget], self.plots), DEFAULT_ARRANGEMENT)
         self.plot_area.tabs.currentChanged.connect(lambda _index: self._refresh_plots())
         self.readout = ReadoutPanel(self._system)
+        for styled in (self.plot_area, self.readout):  # not the design panel: see app.theme
+            styled.setStyleSheet(theme.STYLE_SHEET)
         self.readout.set_budget_ranges(self._budget_ranges)
         self.splitter = QSplitter(Qt.Orientation.Horizontal)
         self.splitter.setChildrenCollapsible(False)
@@ -126,8 +123,20 @@ class MainWindow(WindowMenus, WindowComputing, WindowFiles, WindowLayout, QMainW
         self.splitter.setSizes([360, 710, 370])
         self.setCentralWidget(self.splitter)
         self.compute_label = QLabel()
-        self.compute_label.setProperty("role", "hint")
+        theme.set_role(self.compute_label, "hint")
         self.statusBar().addPermanentWidget(self.compute_label)
+
+    def _prepare_view(self, index: int, view: View) -> None:
+        """Ready a view as it is made: its on-screen controls, the document for a view that
+        edits it (the rating log), the units, and a mark to show the latest result."""
+        view.attach_controls()  # on-screen controls (the swing preview's play, speed, line)
+        bind, set_units = (getattr(view, name, None)
+                           for name in ("bind_document", "set_unit_system"))
+        if bind is not None:
+            bind(self.document)
+        if set_units is not None:
+            set_units(self._system)
+        self._stale_plots.add(index)
 
     def show_message(self, title: str, text: str) -> None:
         """Tell the person something went wrong (a window-modal box that does not block)."""

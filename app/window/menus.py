@@ -104,7 +104,7 @@ class WindowMenus(WindowParts):
         self.grid_action.setChecked(False)
         self.grid_action.toggled.connect(self._set_grid)
         menu.addAction(self.grid_action)
-        motion = next(p for p in self.plots if isinstance(p, MotionPlot))
+        motion = self.plots.of_class(MotionPlot)
         self.difference_action = QAction("Show exact − small-angle &difference", self,
                                          checkable=True)
         self.difference_action.setChecked(motion.shows_difference)
@@ -134,16 +134,16 @@ class WindowMenus(WindowParts):
         return dialog
 
     def _rating_view(self) -> RatingView:
-        return next(p for p in self.plots if isinstance(p, RatingView))
+        return self.plots.of_class(RatingView)
 
     def _show_rating_view(self) -> None:
-        self.plot_area.show_plot(self.plots.index(self._rating_view()))
+        self.plot_area.show_plot(self.plots.index_of_class(RatingView))
 
     def _recording_view(self) -> RecordingView:
-        return next(p for p in self.plots if isinstance(p, RecordingView))
+        return self.plots.of_class(RecordingView)
 
     def _show_recording_view(self) -> None:
-        self.plot_area.show_plot(self.plots.index(self._recording_view()))
+        self.plot_area.show_plot(self.plots.index_of_class(RecordingView))
 
     def _open_recording(self) -> None:
         """Bring the recording view on view and ask for a WAV file."""

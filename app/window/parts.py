@@ -24,6 +24,7 @@ if TYPE_CHECKING:
     from app.readout.readout_panel import ReadoutPanel
     from app.views.base import View
     from app.views.plot_area import PlotArea
+    from app.views.view_list import ViewList
     from app.window.analysis_worker import AnalysisRunner
     from core import DesignError, Result
     from core.tuning import BudgetRanges
@@ -40,7 +41,7 @@ if TYPE_CHECKING:
         autosaver: Autosaver | None
         design_panel: DesignPanel
         readout: ReadoutPanel
-        plots: list[View]
+        plots: ViewList[View]
         plot_area: PlotArea
         splitter: QSplitter
         compute_label: QLabel

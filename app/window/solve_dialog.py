@@ -31,6 +31,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
+from app import theme
 from app.document.document import Document
 from app.form.units import UnitSystem, field_unit, readout_unit
 from app.window.solve_choices import (
@@ -85,6 +86,7 @@ class SolveDialog(QDialog):
         super().__init__(parent)
         self.setWindowTitle("Solve")
         self.setObjectName("SolveDialog")
+        self.setStyleSheet(theme.STYLE_SHEET)  # the window itself carries none (app.theme)
         self.document = document
         self._system = system
         self.solution: Solution | None = None
@@ -137,7 +139,7 @@ class SolveDialog(QDialog):
         form.addRow("", self.null_check)
         hint = QLabel("One field meets one target; two fields meet a period and the "
                       "temperature null together. Each field's whole valid range is searched.")
-        hint.setProperty("role", "hint")
+        theme.set_role(hint, "hint")
         hint.setWordWrap(True)
         form.addRow(hint)
         self.target_combo.currentIndexChanged.connect(self._on_target_kind)
@@ -186,7 +188,7 @@ class SolveDialog(QDialog):
         outer.addLayout(figures)
         self.message = QLabel()
         self.message.setWordWrap(True)
-        self.message.setProperty("role", "hint")
+        theme.set_role(self.message, "hint")
         outer.addWidget(self.message)
         outer.addStretch(1)
         return box
@@ -350,9 +352,7 @@ class SolveDialog(QDialog):
 
     def _say(self, text: str, problem: bool = False) -> None:
         self.status.setText(text)
-        self.status.setProperty("role", "problem" if problem else "")
-        self.status.style().unpolish(self.status)
-        self.status.style().polish(self.status)
+        theme.set_role(self.status, "problem" if problem else "")
 
     # ------------------------------------------------------------------ applying
     def apply(self) -> bool:

@@ -90,8 +90,7 @@ def test_show_view_brings_the_tab_or_the_grid(qtbot) -> None:  # type: ignore[no
     launch._show_view(window, "swing_preview")
     area = window.plot_area
     assert area.arrangement() == "tabs"
-    assert area.tabs.currentWidget() is next(p for p in area.plots
-                                              if p.slug == "swing_preview")
+    assert area.current_view() is next(p for p in area.plots if p.slug == "swing_preview")
     launch._show_view(window, "all")
     assert area.arrangement() == "grid"
     assert len(area.shown_indices()) == sum(p.grid_member for p in area.plots)

@@ -7,18 +7,17 @@ import pytest
 from PySide6.QtWidgets import QWidget
 
 from app.views.plot_area import GRID_PAGE_TITLE, PlotArea
+from app.views.view_list import ViewList
 
 
-class _Plot(QWidget):
-    def __init__(self, title: str, grid_member: bool = True) -> None:
-        super().__init__()
-        self.title = title
-        self.grid_member = grid_member
+def _plot_class(title: str, grid_member: bool = True) -> type[QWidget]:
+    return type(f"Plot{title}", (QWidget,), {"title": title, "grid_member": grid_member})
 
 
 @pytest.fixture
 def area(qtbot):  # type: ignore[no-untyped-def]
-    plots = [_Plot("A"), _Plot("B"), _Plot("C"), _Plot("D"), _Plot("Sweep", False)]
+    plots: ViewList[QWidget] = ViewList([_plot_class("A"), _plot_class("B"), _plot_class("C"),
+                                         _plot_class("D"), _plot_class("Sweep", False)])
     view = PlotArea(plots, "tabs")
     qtbot.addWidget(view)
     return view
@@ -54,3 +53,15 @@ def test_switching_arrangement_announces_the_page_on_view(qtbot, area: PlotArea)
         area.set_arrangement("grid")
     with qtbot.waitSignal(area.tabs.currentChanged):
         area.set_arrangement("tabs")
+
+
+def test_a_view_is_made_when_its_page_first_comes_on_view(area: PlotArea) -> None:
+    plots = area.plots
+    assert [plots.made(i) for i in range(5)] == [True, False, False, False, False]
+    area.show_plot(3)
+    assert plots.made(3) and not plots.made(2)
+    assert area.current_view() is plots[3]
+    assert plots[3].parentWidget() is area.page(3)  # placed in its page
+    area.set_arrangement("grid")  # the grid's members come on view together
+    assert [plots.made(i) for i in range(5)] == [True, True, True, True, False]
+    assert plots.index(plots[4]) == 4 and plots[4].parentWidget() is area.page(4)

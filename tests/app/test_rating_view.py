@@ -101,7 +101,7 @@ class TestEdits:
         QApplication.processEvents()
         assert len(window.document.design.rating_log.readings) == before + 1
         view = next(p for p in window.plots if isinstance(p, RatingView))
-        assert window.plot_area.tabs.currentWidget() is view
+        assert window.plot_area.current_view() is view
 
     def test_a_typed_cell_is_one_step_and_a_bad_one_is_refused_by_row(self, window) -> None:  # type: ignore[no-untyped-def]
         view = rating_view(window)
