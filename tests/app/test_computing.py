@@ -46,7 +46,6 @@ def wait_idle(qtbot, window: MainWindow) -> None:  # type: ignore[no-untyped-def
     qtbot.waitUntil(window.computing_idle, timeout=10000)
 
 
-@pytest.mark.slow
 def test_the_window_processes_events_while_a_slow_analysis_runs(
         window: MainWindow, qtbot, monkeypatch: pytest.MonkeyPatch) -> None:  # type: ignore[no-untyped-def]
     slow = SlowAnalysis(1.0)

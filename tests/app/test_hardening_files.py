@@ -89,14 +89,6 @@ BROKEN_PATHS: dict[str, tuple[Callable[[Path], Path], str, str]] = {
 }
 
 
-def _first_quick(names: list[str], keep: int) -> list[Any]:
-    """The first ``keep`` cases run in the quick tier; the rest (the same path through the
-    window with other bytes or faults, each checked in the core's own tests too) are marked
-    ``slow`` and run in the full suite."""
-    return [name if i < keep else pytest.param(name, marks=pytest.mark.slow)
-            for i, name in enumerate(names)]
-
-
 class Messages:
     """Records what the window would tell the person."""
 
@@ -163,7 +155,7 @@ class TestOpeningBrokenFiles:
         assert _state(window) == before
         assert asked == []  # refused before asking about the unsaved edit
 
-    @pytest.mark.parametrize("name", _first_quick(list(BROKEN_BYTES), 2))
+    @pytest.mark.parametrize("name", list(BROKEN_BYTES))
     def test_broken_contents(self, edited: MainWindow, messages: Messages, asked: list[int],
                              tmp_path: Path, name: str) -> None:
         data, field, words = BROKEN_BYTES[name]
@@ -172,7 +164,7 @@ class TestOpeningBrokenFiles:
         self._check_refused(edited, messages, path, field, words, asked)
         assert path.read_bytes() == data
 
-    @pytest.mark.parametrize("name", _first_quick(list(BROKEN_PATHS), 2))
+    @pytest.mark.parametrize("name", list(BROKEN_PATHS))
     def test_broken_paths(self, edited: MainWindow, messages: Messages, asked: list[int],
                           tmp_path: Path, name: str) -> None:
         make, field, words = BROKEN_PATHS[name]
@@ -302,7 +294,7 @@ SAVE_FAULTS: dict[str, tuple[Callable[[pytest.MonkeyPatch], None], int]] = {
 
 
 class TestSaveFaults:
-    @pytest.mark.parametrize("name", _first_quick(list(SAVE_FAULTS), 1))
+    @pytest.mark.parametrize("name", list(SAVE_FAULTS))
     def test_save_keeps_the_old_file_and_stays_unsaved(
             self, edited: MainWindow, messages: Messages, monkeypatch: pytest.MonkeyPatch,
             name: str) -> None:
@@ -325,7 +317,7 @@ class TestSaveFaults:
         assert not edited.document.is_dirty
         assert load_design(path) == edited.document.design
 
-    @pytest.mark.parametrize("name", _first_quick(list(SAVE_FAULTS), 1))
+    @pytest.mark.parametrize("name", list(SAVE_FAULTS))
     def test_save_as_keeps_the_old_name_and_writes_nothing(
             self, edited: MainWindow, messages: Messages, monkeypatch: pytest.MonkeyPatch,
             tmp_path: Path, name: str) -> None:

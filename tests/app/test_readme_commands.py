@@ -83,19 +83,10 @@ def test_the_readme_has_commands_to_run() -> None:
 
 
 def _quick_or_slow(lines: list[str]) -> list[object]:
-    """Each line as a case. The exports (each renders plots and a PDF; `export` also runs in
-    ``test_export.py``'s quick tests) and the window drawings after the first are marked
-    ``slow``: the quick tier keeps every other command and one window, the full suite runs
-    them all."""
-    seen: set[str] = set()
-    cases: list[object] = []
-    for line in lines:
-        words = shlex.split(line)[1:]
-        kind = "window" if not words or words[0] not in COMMANDS else words[0]
-        heavy = kind == "export" or (kind == "window" and kind in seen)
-        cases.append(pytest.param(line, marks=pytest.mark.slow) if heavy else line)
-        seen.add(kind)
-    return cases
+    """Each line as a case; the exports (each renders every plot and a PDF) are marked
+    ``slow`` and run in the full suite (`export` runs in ``test_export.py``'s quick tests)."""
+    return [pytest.param(line, marks=pytest.mark.slow)
+            if shlex.split(line)[1:2] == ["export"] else line for line in lines]
 
 
 @pytest.mark.parametrize("line", _quick_or_slow(

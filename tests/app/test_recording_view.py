@@ -178,7 +178,6 @@ class TestRefusals:
 
 
 class TestWorker:
-    @pytest.mark.slow
     def test_the_window_turns_its_event_loop_during_a_long_analysis(  # type: ignore[no-untyped-def]
             self, qtbot, window, long_recording) -> None:
         view = recording_view(window)

@@ -196,7 +196,6 @@ class TestSolveWrite:
         assert code == 2 and out.read_bytes() == theirs
         assert "--force" in capsys.readouterr().err
 
-    @pytest.mark.slow
     def test_force_overwrites_it(self, example_copy: Path, tmp_path: Path,
                                  monkeypatch: pytest.MonkeyPatch) -> None:
         out = tmp_path / "out.pendulum.json"
@@ -207,7 +206,6 @@ class TestSolveWrite:
         assert code == 0
         assert load_design(out).parts[0].length_m != load_design(example_copy).parts[0].length_m
 
-    @pytest.mark.slow
     def test_an_unchanged_output_is_written(self, example_copy: Path, tmp_path: Path) -> None:
         out = tmp_path / "out.pendulum.json"
         out.write_text("{}\n", encoding="utf-8")

@@ -55,7 +55,6 @@ class TestChoices:
 
 
 class TestSolveInTheWindow:
-    @pytest.mark.slow
     def test_two_fields_meet_period_and_null_then_undo_restores(self, zinc_window: MainWindow,
                                                                  qtbot) -> None:  # type: ignore[no-untyped-def]
         win = zinc_window

@@ -278,7 +278,6 @@ class TestWholeRange:
         assert "does not change the period" in err.value.reason
         assert "-90 to 90" in err.value.reason
 
-    @pytest.mark.slow
     def test_unreachable_says_the_range(self) -> None:
         d = load_design(EXAMPLE)
         sol = solve(d, ["parts[3].mass_kg"], Targets(period_s=1.0))
