@@ -55,9 +55,9 @@ def default_design_path() -> Path:
 
 def view_names() -> list[str]:
     """The names ``--view`` accepts: each view's slug (from the catalogue), then ``all``."""
-    from app.views.catalogue import VIEWS
+    from app.views.catalogue import CARDS
 
-    return [cls.slug for cls in VIEWS] + [ALL_VIEWS]
+    return [entry.slug for entry in CARDS] + [ALL_VIEWS]
 
 
 def _library_loads(name: str, soname: str) -> bool:
@@ -217,7 +217,7 @@ def _show_view(window: object, view: str) -> None:
         area.set_arrangement("grid")
         area.show_plot(0)
         return
-    index = next(i for i, cls in enumerate(area.plots.classes) if cls.slug == view)
+    index = area.plots.index_of_slug(view)
     area.set_arrangement("tabs")
     area.show_plot(index)
 

@@ -8,6 +8,7 @@ from PySide6.QtWidgets import QWidget
 
 from app import theme
 from app.views.axes import degrees
+from app.views.catalogue import from_card
 from app.views.chart import ChartView, abs_max
 from core import Result
 
@@ -16,12 +17,11 @@ __all__ = ["MotionPlot", "COINCIDE_PX"]
 COINCIDE_PX = 1.5  # curves closer than this on screen are drawn as one
 
 
+@from_card("motion")
 class MotionPlot(ChartView):
     """Angle against time from release at the working semi-arc: exact and linearised, and
     their difference on the right axis (can be hidden)."""
 
-    title = "Motion"
-    slug = "motion"
     caption = ("Angle against time after release from rest at the working semi-arc: the "
                "exact motion and the small-angle model, and their difference (right axis).")
 

@@ -10,6 +10,7 @@ from PySide6.QtWidgets import QComboBox, QGraphicsEllipseItem, QGraphicsItem, QW
 from app import theme
 from app.views.axes import pen
 from app.views.base import select_quietly
+from app.views.catalogue import from_card
 from app.views.chart import ChartView, y_extent
 from core import Result
 from core.analysis import PeriodCurve
@@ -41,13 +42,12 @@ NEAR_MIN_DEG = 10.0
 WHOLE_DEG = 180.0
 
 
+@from_card("period_curve")
 class PeriodCurvePlot(ChartView):
     """Exact period or circular error (the person's choice) against semi-arc, the working
     semi-arc marked on the curve and labelled with its values; x near the working arc or over
     the whole range to 180°."""
 
-    title = "Period against semi-arc"
-    slug = "period_curve"
     caption = ("Exact period and circular error against semi-arc; the working semi-arc "
                "is marked.")
 

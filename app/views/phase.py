@@ -9,12 +9,14 @@ from PySide6.QtWidgets import QCheckBox, QWidget
 
 from app import theme
 from app.views.axes import degrees
+from app.views.catalogue import from_card
 from app.views.chart import ChartView, fill_slots, on_view
 from core import Result
 
 __all__ = ["PhasePlot"]
 
 
+@from_card("phase")
 class PhasePlot(ChartView):
     """Angular velocity against angle: this swing, neighbouring semi-arcs, the separatrix
     and orbits going over the top.
@@ -28,8 +30,6 @@ class PhasePlot(ChartView):
     the lines on view.
     """
 
-    title = "Phase plane"
-    slug = "phase"
     caption = ("Angular velocity against angle: this swing (with damping, the motion from "
                "release), neighbouring semi-arcs and, where they reach the view, the "
                "separatrix between swinging and going over the top.")

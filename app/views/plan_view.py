@@ -26,6 +26,7 @@ from app import theme
 from app.form.units import UnitSystem, readout_unit
 from app.views.axes import style_axis
 from app.views.base import ResultView
+from app.views.catalogue import from_card
 from app.views.swing_drawing import cosmetic_pen
 from core import Result
 
@@ -73,15 +74,13 @@ def _circle(radius: float, n: int = 241) -> tuple[np.ndarray, np.ndarray]:
     return radius * np.sin(t), radius * np.cos(t)
 
 
+@from_card("plan_view")
 class PlanView(ResultView):
     """The exhibit from above (see the module notes)."""
 
-    title = "Plan view"
-    slug = "plan_view"
     caption = ("The exhibit seen from above, to scale: floor, barrier, the area the body "
                "sweeps, the swing plane now and after each of the next hours, and the pins "
                "with the time until each falls.")
-    grid_member = False
     follows_pan = False
 
     def __init__(self, parent: QtWidgets.QWidget | None = None) -> None:

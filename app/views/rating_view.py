@@ -34,6 +34,7 @@ from PySide6.QtWidgets import (
 
 from app import theme
 from app.form.units import UnitSystem, readout_unit
+from app.views.catalogue import from_card
 from app.views.document_view import DocumentView
 from app.views.rating_edits import design_with_log
 from app.views.rating_figures import figures_html
@@ -49,13 +50,10 @@ from core.rating_report import rating_report
 __all__ = ["RatingView"]
 
 
+@from_card("rating")
 class RatingView(DocumentView, QWidget):
     """The rating log, its fit and the model beside it (see the module notes)."""
 
-    title = "Rating"
-    slug = "rating"
-    grid_member = False  # not a plot of the current swing: a tab of its own
-    in_report = False  # needs a log and choices made on screen
     caption = ""
 
     def __init__(self, parent: QWidget | None = None) -> None:

@@ -40,6 +40,7 @@ from PySide6.QtWidgets import (
 
 from app import theme
 from app.document.settings import app_settings
+from app.views.catalogue import from_card
 from app.views.document_view import DocumentView
 from app.views.recording_figures import figures_html
 from app.views.recording_plots import IntervalPlot, ResidualPlot, WaveformPlot
@@ -57,13 +58,10 @@ CHANNELS = (("Channels mixed", None), ("Left channel", 0), ("Right channel", 1))
 LAST_PATH_KEY = "recording/last_path"
 
 
+@from_card("recording")
 class RecordingView(DocumentView, QWidget):
     """A recording's beat, rate and ticks (see the module notes)."""
 
-    title = "Recording"
-    slug = "recording"
-    grid_member = False  # a tab of its own
-    in_report = False  # the recording is not part of the design
     caption = ""
 
     def __init__(self, parent: QWidget | None = None) -> None:

@@ -29,6 +29,7 @@ from PySide6.QtWidgets import (
 
 from app import theme
 from app.form.units import ReadoutUnit, UnitSystem, readout_unit
+from app.views.catalogue import from_card
 from app.views.plot_export import export_plot
 from app.views.sweep_canvas import SweepCanvas
 from app.views.sweep_fields import (
@@ -47,6 +48,7 @@ from core.solve import SweepTable, sweep_field
 __all__ = ["SweepPlot", "SweepField", "sweep_fields", "default_range", "PIVOT",
            "SWEEP_POINTS", "SWEEP_INTERVAL_MS"]
 
+@from_card("sweep")
 class SweepPlot(QWidget):
     """Period or rate against one field of the design (see the module notes).
 
@@ -56,10 +58,10 @@ class SweepPlot(QWidget):
     two rows, above the plot rather than over its title row. The baseline is not swept.
     """
 
-    title = "Sweep"
-    slug = "sweep"
-    grid_member = False  # a study with its own controls: a tab of its own, not a grid cell
-    in_report = False  # depends on choices made on screen; not in the headless export
+    title: str  # these four from the card (app.views.catalogue)
+    slug: str
+    grid_member: bool
+    in_report: bool
     caption = ""
 
     def __init__(self, parent: QWidget | None = None) -> None:

@@ -17,6 +17,7 @@ from app import theme
 from app.form.units import ReadoutUnit, format_sig
 from app.views.axes import style_axis
 from app.views.base import ResultView
+from app.views.catalogue import from_card
 from app.views.sweep_fields import PIVOT, SweepField
 from core import Result
 from core.solve import SweepTable
@@ -26,12 +27,11 @@ __all__ = ["SweepCanvas"]
 NOTE_COLOUR = "#6b7178"  # a plain remark, not a refusal
 
 
+@from_card("sweep")
 class SweepCanvas(ResultView):
     """The sweep's plot: the shared view base (export menu, title) under the sweep's own
     two-row control bar; :class:`SweepPlot` draws into it."""
 
-    title = "Sweep"
-    slug = "sweep"
     follows_pan = False  # the sweep frames its range itself
 
     def show_result(self, result: Result, baseline: Result | None = None) -> None:

@@ -18,6 +18,7 @@ from app import theme
 from app.form.units import ReadoutUnit, UnitSystem, figure_text
 from app.views.axes import drawing_unit, label_length_axes, style_axis
 from app.views.base import DRAG_MARGIN, KEEP_FILL, ResultView
+from app.views.catalogue import from_card
 from app.views.pivot_marks import PivotMarks
 from app.views.swing_animation import (
     SPEEDS,
@@ -52,6 +53,7 @@ AXIS_WORDS = {"left": "Below pivot", "bottom": "Across the swing"}
 SMOOTH_DRAWING = True  # antialiased drawing (benchmarks/gui_bench.py measures its cost)
 
 
+@from_card("swing_preview")
 class SwingPreview(ResultView, SwingAnimation):
     """The pendulum to scale, animated at true speed or slowed, with its sweep envelope.
 
@@ -60,8 +62,6 @@ class SwingPreview(ResultView, SwingAnimation):
     playingChanged(bool), speedChanged(float), clearanceChanged()
     """
 
-    title = "Swing preview"
-    slug = "swing_preview"
     caption = ("The pendulum to scale at release (full semi-arc), with the paths of the bob "
                "centre and of the lowest point over the swing.")
     follows_pan = False  # the drawing is framed whole for every result

@@ -42,14 +42,17 @@ class ViewList(Sequence[V], Generic[V]):
         """The views made so far, in order."""
         return [view for view in self._views if view is not None]
 
-    def index_of_class(self, cls: type) -> int:
-        """The index of the first view of class ``cls`` (or a subclass), made or not."""
-        return next(i for i, made_by in enumerate(self.classes)
-                    if isinstance(made_by, type) and issubclass(made_by, cls))
+    def index_of_slug(self, slug: str) -> int:
+        """The index of the view whose maker (a card or a class) has ``slug``, made or not
+        (ValueError when none has)."""
+        for i, made_by in enumerate(self.classes):
+            if getattr(made_by, "slug", None) == slug:
+                return i
+        raise ValueError(f"no view {slug!r}")
 
-    def of_class(self, cls: type[T]) -> T:
-        """The view of class ``cls`` (made now if needed)."""
-        view = self[self.index_of_class(cls)]
+    def of_slug(self, slug: str, cls: type[T]) -> T:
+        """The view ``slug`` (made now if needed), which is a ``cls``."""
+        view = self[self.index_of_slug(slug)]
         assert isinstance(view, cls)
         return view
 

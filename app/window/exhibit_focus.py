@@ -22,7 +22,4 @@ def focus_for_purpose(window: Any, result: Result) -> None:
     window._purpose_shown = result.purpose
     if result.purpose != "exhibit" or last == "exhibit":
         return
-    for index, cls in enumerate(window.plots.classes):
-        if getattr(cls, "slug", "") == PREVIEW_SLUG:
-            window.plot_area.show_plot(index)
-            return
+    window.plot_area.show_plot(window.plots.index_of_slug(PREVIEW_SLUG))

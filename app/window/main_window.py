@@ -25,7 +25,7 @@ from app.form.design_panel import DesignPanel
 from app.form.units import UnitSystem
 from app.readout.readout_panel import ReadoutPanel
 from app.views.base import View
-from app.views.catalogue import VIEWS
+from app.views.catalogue import CARDS
 from app.views.plot_area import PlotArea
 from app.views.view_list import ViewList
 from app.window.computing import WindowComputing
@@ -101,7 +101,7 @@ class MainWindow(WindowMenus, WindowComputing, WindowFiles, WindowLayout, QMainW
 
     def _build_views(self) -> None:
         self.design_panel = DesignPanel(self.document, self._system)
-        self.plots: ViewList[View] = ViewList(VIEWS)  # each made when first on view
+        self.plots: ViewList[View] = ViewList(CARDS)  # each made when first on view
         self.plots.when_made(self._prepare_view)
         self._stale_plots: set[int] = set(range(len(self.plots)))
         self.plot_area = PlotArea(cast(ViewList[QWidget], self.plots), DEFAULT_ARRANGEMENT)

@@ -4,21 +4,23 @@ from __future__ import annotations
 
 from collections.abc import Callable
 from pathlib import Path
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
 from PySide6.QtGui import QAction, QActionGroup, QKeySequence
 from PySide6.QtWidgets import QMenu
 
 from app.document.settings import recent_files
-from app.form.materials_dialog import MaterialsDialog
 from app.form.units import UnitSystem
 from app.views.motion import MotionPlot
-from app.views.rating_view import RatingView
-from app.views.recording_view import RecordingView
 from app.window.files import example_files, example_title
 from app.window.parts import WindowParts
 from app.window.sheet_export import ask_export_sheet
-from app.window.solve_dialog import SolveDialog
+
+if TYPE_CHECKING:  # imported when first used: the window opens without them
+    from app.form.materials_dialog import MaterialsDialog
+    from app.views.rating_view import RatingView
+    from app.views.recording_view import RecordingView
+    from app.window.solve_dialog import SolveDialog
 
 __all__ = ["WindowMenus"]
 
@@ -104,7 +106,7 @@ class WindowMenus(WindowParts):
         self.grid_action.setChecked(False)
         self.grid_action.toggled.connect(self._set_grid)
         menu.addAction(self.grid_action)
-        motion = self.plots.of_class(MotionPlot)
+        motion = self.plots.of_slug("motion", MotionPlot)
         self.difference_action = QAction("Show exact − small-angle &difference", self,
                                          checkable=True)
         self.difference_action.setChecked(motion.shows_difference)
@@ -119,6 +121,8 @@ class WindowMenus(WindowParts):
 
     def open_solve_dialog(self) -> SolveDialog:
         """Tools ▸ Solve…: the solve dialog over the window (window-modal, not blocking)."""
+        from app.window.solve_dialog import SolveDialog
+
         dialog = SolveDialog(self.document, self._system, self)
         dialog.finished.connect(dialog.deleteLater)
         self.solve_dialog = dialog
@@ -127,6 +131,8 @@ class WindowMenus(WindowParts):
 
     def open_materials_dialog(self) -> MaterialsDialog:
         """Tools ▸ Your materials…: add, edit and remove the design's own materials."""
+        from app.form.materials_dialog import MaterialsDialog
+
         dialog = MaterialsDialog(self.document, self)
         dialog.finished.connect(dialog.deleteLater)
         self.materials_dialog = dialog
@@ -134,16 +140,20 @@ class WindowMenus(WindowParts):
         return dialog
 
     def _rating_view(self) -> RatingView:
-        return self.plots.of_class(RatingView)
+        from app.views.rating_view import RatingView
+
+        return self.plots.of_slug("rating", RatingView)
 
     def _show_rating_view(self) -> None:
-        self.plot_area.show_plot(self.plots.index_of_class(RatingView))
+        self.plot_area.show_plot(self.plots.index_of_slug("rating"))
 
     def _recording_view(self) -> RecordingView:
-        return self.plots.of_class(RecordingView)
+        from app.views.recording_view import RecordingView
+
+        return self.plots.of_slug("recording", RecordingView)
 
     def _show_recording_view(self) -> None:
-        self.plot_area.show_plot(self.plots.index_of_class(RecordingView))
+        self.plot_area.show_plot(self.plots.index_of_slug("recording"))
 
     def _open_recording(self) -> None:
         """Bring the recording view on view and ask for a WAV file."""
