@@ -58,6 +58,7 @@ class DesignPanel(PartsSection, SuspensionSection, QScrollArea):
                  parent: QWidget | None = None) -> None:
         super().__init__(parent)
         self.setObjectName("DesignScroll")
+        theme.flat_scrollbars(self)
         self.document = document
         self._system = system
         self._result: Result | None = None

@@ -74,6 +74,7 @@ class PartsSection:
         outer.setContentsMargins(8, 6, 8, 6)
         self.parts_list = QListWidget()
         theme.colour_list(self.parts_list)
+        theme.flat_scrollbars(self.parts_list)
         self.parts_list.setAccessibleName("parts")
         self.parts_list.setMaximumHeight(112)
         self.parts_list.currentRowChanged.connect(self._on_part_selected)
