@@ -9,7 +9,8 @@
 ``swing_animation`` clocks: angle against time for the animation
 ``swing_preview``  the swing preview widget; ``swing_controls`` its play/speed/line strip
 ``sweep``          period or rate against one design field (``sweep_fields``: what can vary)
-``catalogue``      ``VIEWS``: the one list of views the tabs, the grid, File ▸ Export and the
-                   headless exporter all read
-``plot_area``      the tabs and the "All plots" grid
+``catalogue``      ``CARDS``: the one list of views the tabs, the grid, File ▸ Export and the
+                   headless exporter all read (each view's slug, title and places)
+``plot_area``      the tabs and the "All plots" grid, a page per view
+``view_list``      the window's views, each made (and its module imported) when first on view
 """
