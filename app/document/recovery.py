@@ -304,13 +304,17 @@ class Autosaver(QObject):
             return True
         try:
             design_path, info_path = self._open_session()
-            write_text_atomic(design_path, dumps_design(state[0]))
+            text = dumps_design(state[0])
             info = {"format": RECOVERY_FORMAT, "version": RECOVERY_VERSION,
                     "original_path": None if state[1] is None else str(state[1]),
                     "name": state[0].name,
                     "saved_at": datetime.now(UTC).isoformat(timespec="seconds"),
                     "design_file": design_path.name, "pid": os.getpid()}
+            # The record first: the design file is what makes a session recoverable, so a
+            # process killed between the two writes never leaves a design without its record
+            # (the file it came from would be lost).
             write_text_atomic(info_path, json.dumps(info, indent=2, ensure_ascii=False) + "\n")
+            write_text_atomic(design_path, text)
         except DesignError as exc:
             return self._fail(f"Autosave failed: {exc.reason}")
         except OSError as exc:

@@ -153,6 +153,26 @@ class TestAutosave:
         assert info["name"] == edited.name
         saver.close()
 
+    def test_the_record_is_written_before_the_design(
+            self, folder: Path, example_copy: Path, monkeypatch: pytest.MonkeyPatch) -> None:
+        # A process killed between the two writes must not leave a design without its record
+        # (the file it came from would be lost): the design file goes last.
+        written: list[str] = []
+        real = recovery.write_text_atomic
+
+        def recorder(path: Path, text: str) -> None:
+            written.append(Path(path).name)
+            real(path, text)
+
+        monkeypatch.setattr(recovery, "write_text_atomic", recorder)
+        document = Document(load_design(example_copy), example_copy)
+        saver = Autosaver(document, folder, interval_s=3600.0)
+        document.commit(_edit(document.design), "Change semi-arc", "swing.amplitude_deg")
+        assert saver.autosave_now()
+        assert [name.split(".", 1)[1] for name in written] == ["recovery.json",
+                                                              "pendulum.json"]
+        saver.close()
+
     def test_an_edit_is_autosaved_a_moment_after_it_is_made(self, qtbot, folder: Path) -> None:  # type: ignore[no-untyped-def]
         document = Document(load_design(EXAMPLE))
         saver = Autosaver(document, folder, interval_s=3600.0, delay_s=0.2)
