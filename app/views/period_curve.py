@@ -173,9 +173,9 @@ class PeriodCurvePlot(ChartView):
         self._result_arrived(result, baseline)
         curve = result.period_curve
         amps = np.asarray(curve.amplitude_deg, dtype=float)
-        self.period.setData(amps, np.asarray(curve.period_s, dtype=float))
-        self.error.setData(amps, np.asarray(curve.circular_error_s_per_day, dtype=float))
-        self.rate.setData(amps, _rate_values(curve))
+        shown = {"period": self.period, "circular_error": self.error,
+                 "rate": self.rate}[self._quantity]
+        shown.setData(amps, self._values(curve))  # the hidden two are filled when chosen
         amp = float(result.amplitude_deg)
         here = self._here(result)
         self.marker.setValue(amp)

@@ -90,8 +90,6 @@ class TestPeriodCurve:
         qtbot.addWidget(plot)
         plot.show_result(result)
         np.testing.assert_allclose(plot.period.getData()[1], result.period_curve.period_s)
-        np.testing.assert_allclose(plot.error.getData()[1],
-                                   result.period_curve.circular_error_s_per_day)
         assert plot.quantity == "period"
         assert plot.period.isVisible() and not plot.error.isVisible()
         assert plot.getPlotItem().getAxis("left").labelText == "Period (s)"
@@ -100,6 +98,8 @@ class TestPeriodCurve:
         assert plot.error.isVisible() and not plot.period.isVisible()
         assert plot.getPlotItem().getAxis("left").labelText == "Circular error (s/day)"
         np.testing.assert_allclose(plot.shown_values(),
+                                   result.period_curve.circular_error_s_per_day)
+        np.testing.assert_allclose(plot.error.getData()[1],  # filled when chosen
                                    result.period_curve.circular_error_s_per_day)
         plot.quantity_box.setCurrentIndex(2)  # the rate against the target
         assert plot.quantity == "rate" and plot.rate.isVisible() and not plot.error.isVisible()
