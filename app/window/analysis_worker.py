@@ -12,13 +12,21 @@ spring design does not pay for it on the interface thread.
 
 from __future__ import annotations
 
+import sys
 import time
 from collections.abc import Callable
 from typing import Any
 
 from PySide6.QtCore import QObject, QThreadPool, Signal
 
-__all__ = ["AnalysisRunner", "warm_up"]
+__all__ = ["AnalysisRunner", "warm_up", "SWITCH_INTERVAL_S"]
+
+SWITCH_INTERVAL_S = 0.001
+"""How long a thread may hold the interpreter before another may take it (Python's default
+is 5 ms). An analysis holds it through LSODA's calls back into Python, so with the default the
+interface thread waited up to 5 ms at a time to paint; at 1 ms "all plots" kept 64–67 edits/s
+with a full repaint against 59–62 (measured, benchmarks/gui_bench.py conditions); 0.5 ms was
+slower again (the switching itself)."""
 
 Analyse = Callable[..., Any]
 
@@ -65,6 +73,7 @@ class AnalysisRunner(QObject):
 
     def __init__(self, parent: QObject | None = None) -> None:
         super().__init__(parent)
+        sys.setswitchinterval(SWITCH_INTERVAL_S)
         # The relay has no parent: a job still running when the window goes keeps it alive,
         # and its late result finds no receiver.
         self._relay = _Relay()
