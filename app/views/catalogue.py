@@ -53,7 +53,7 @@ class ViewCard:
 CARDS: tuple[ViewCard, ...] = (
     ViewCard("motion", "Motion", "app.views.motion", "MotionPlot"),
     ViewCard("phase", "Phase plane", "app.views.phase", "PhasePlot"),
-    ViewCard("period_curve", "Period against semi-arc", "app.views.period_curve",
+    ViewCard("period_curve", "Period curve", "app.views.period_curve",
              "PeriodCurvePlot"),
     ViewCard("swing_preview", "Swing preview", "app.views.swing_preview", "SwingPreview"),
     ViewCard("plan_view", "Plan view", "app.views.plan_view", "PlanView", grid_member=False),
