@@ -149,7 +149,9 @@ def open_window(app: QApplication, design: Design, path: Path | None,
     workbench is spent. Without it (a screenshot), the workbench is made but not shown.
     """
     shell = first_window(app, design.name, remember_layout) if first else None
-    _preload_integrator()
+    from app.window.analysis_worker import warm_up  # Qt's core and the standard library only
+
+    warm_up()  # the integrator imports on a pool thread while this one imports the interface
     from app.document.settings import APPLICATION, ORGANISATION  # numpy, scipy: the heavy part
     from app.window.main_window import MainWindow
 
@@ -166,19 +168,6 @@ def open_window(app: QApplication, design: Design, path: Path | None,
         shell.close()
         shell.deleteLater()
     return window
-
-
-def _import_integrator() -> None:
-    import scipy.integrate  # noqa: F401  (a damped or spring design's first analysis needs it)
-
-
-def _preload_integrator() -> None:
-    """Import scipy.integrate on a thread of its own while this one imports the interface:
-    the waits of the two imports (files, shared libraries) overlap, and the first analysis
-    of a damped design finds the integrator loaded."""
-    import threading
-
-    threading.Thread(target=_import_integrator, name="penduline-preload", daemon=True).start()
 
 
 def first_window(app: QApplication, name: str, remember_layout: bool = True) -> QMainWindow:

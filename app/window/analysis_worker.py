@@ -129,5 +129,6 @@ def _import_integrator() -> None:
 
 
 def warm_up() -> None:
-    """Import the integrator's module on a pool thread (a few tenths of a second once)."""
+    """Import the integrator's module on a pool thread (a few tenths of a second once; a
+    second call while it runs waits on the import and returns)."""
     QThreadPool.globalInstance().start(_import_integrator)
