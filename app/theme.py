@@ -68,11 +68,10 @@ QScrollBar::add-page, QScrollBar::sub-page {{ background: none; }}
 against 0.04 ms for these (measured), and a full repaint of the window has two."""
 
 STYLE_SHEET = f"""
-QMainWindow, QWidget#DesignPanel, QWidget#ReadoutPanel {{ background: #f4f2ee; }}
-QScrollArea#DesignScroll {{ border: none; background: #f4f2ee; }}
+QWidget#ReadoutPanel {{ background: {WINDOW}; }}
 QGroupBox {{
-    font-weight: 600; border: 1px solid #d8d4cc; border-radius: 5px;
-    margin-top: 14px; padding: 8px 6px 6px 6px; background: #fbfaf7;
+    font-weight: 600; border: 1px solid {GROUP_BORDER}; border-radius: 5px;
+    margin-top: 14px; padding: 8px 6px 6px 6px; background: {GROUP_BACKGROUND};
 }}
 QGroupBox::title {{ subcontrol-origin: margin; left: 8px; padding: 0 3px; color: {INK}; }}
 QGroupBox QLabel {{ font-weight: normal; }}
@@ -90,10 +89,10 @@ QFrame#Warning {{
 }}
 QLabel#NoteHeading {{ font-weight: 700; color: {INK}; }}
 QHeaderView::section {{
-    background: #ebe8e1; border: none; border-right: 1px solid #d8d4cc; padding: 3px 6px;
+    background: #ebe8e1; border: none; border-right: 1px solid {GROUP_BORDER}; padding: 3px 6px;
     font-weight: 600;
 }}
-QTabWidget::pane {{ border: 1px solid #d8d4cc; background: {PLOT_BACKGROUND}; }}
+QTabWidget::pane {{ border: 1px solid {GROUP_BORDER}; background: {PLOT_BACKGROUND}; }}
 """ + SCROLLBAR_STYLE
 
 
