@@ -18,6 +18,7 @@ from __future__ import annotations
 
 import re
 from dataclasses import dataclass
+from functools import lru_cache
 from typing import Any
 
 from .constants import BEATS_PER_PERIOD, SECONDS_PER_HOUR
@@ -85,6 +86,19 @@ class FieldSpec:
 _STEP = re.compile(r"([A-Za-z_][A-Za-z0-9_]*)(?:\[(\d+)\])?")
 
 
+@lru_cache(maxsize=4096)  # a design has a few hundred paths; the form reads them on each edit
+def _parsed_steps(text: str) -> tuple[str | int, ...]:
+    steps: list[str | int] = []
+    for piece in text.split("."):
+        m = _STEP.fullmatch(piece)
+        if not m:
+            raise ValueError(f"{text!r} is not a field path (example: parts[2].mount.centre_m)")
+        steps.append(m.group(1))
+        if m.group(2) is not None:
+            steps.append(int(m.group(2)))
+    return tuple(steps)
+
+
 @dataclass(frozen=True)
 class FieldPath:
     """A path to a value in a design file: ``parts[1].mount.centre_m``.
@@ -99,16 +113,7 @@ class FieldPath:
         """Parse ``text``; raises ``ValueError`` when it is not a field path."""
         if not isinstance(text, str):
             raise TypeError(f"a field path is text, not {type(text).__name__}")
-        steps: list[str | int] = []
-        for piece in text.split("."):
-            m = _STEP.fullmatch(piece)
-            if not m:
-                raise ValueError(f"{text!r} is not a field path "
-                                 "(example: parts[2].mount.centre_m)")
-            steps.append(m.group(1))
-            if m.group(2) is not None:
-                steps.append(int(m.group(2)))
-        return cls(tuple(steps))
+        return cls(_parsed_steps(text))
 
     @property
     def key(self) -> str:

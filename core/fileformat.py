@@ -9,7 +9,6 @@ the target and renames it over the old one.
 
 from __future__ import annotations
 
-import copy
 import json
 import os
 import stat
@@ -312,16 +311,19 @@ def get_value(obj: Any, path: str) -> Any:
 
 @guarded("field")
 def set_in_dict(obj: Any, path: str, value: Any) -> Any:
-    """A deep copy of design dict ``obj`` with ``path`` set to ``value`` (the key must exist
-    or its parent object must)."""
+    """A new design dict equal to ``obj`` with ``path`` set to ``value`` (the key must exist
+    or its parent object must). ``obj`` is left as it was: the objects along the path are
+    copied, the rest is shared with ``obj`` (neither is changed afterwards by the core)."""
     steps = _steps(path)
-    new = copy.deepcopy(obj)
+    new = _shallow(obj, path)
     cur = new
     for step in steps[:-1]:
         try:
-            cur = cur[step]
+            child = cur[step]
         except (KeyError, IndexError, TypeError):
             raise DesignError(path, "no such field in this design") from None
+        cur[step] = child = _shallow(child, path)
+        cur = child
     last = steps[-1]
     if isinstance(last, int):
         if not isinstance(cur, list) or not 0 <= last < len(cur):
@@ -330,6 +332,15 @@ def set_in_dict(obj: Any, path: str, value: Any) -> Any:
         raise DesignError(path, "no such field in this design")
     cur[last] = value
     return new
+
+
+def _shallow(obj: Any, path: str) -> Any:
+    """A copy of one dict or list of a design dict (its contents shared)."""
+    if isinstance(obj, dict):
+        return dict(obj)
+    if isinstance(obj, list):
+        return list(obj)
+    raise DesignError(path, "no such field in this design")
 
 
 @guarded("field")

@@ -14,7 +14,7 @@ import dataclasses
 import re
 from typing import Any
 
-from core import Design, DesignError, design_from_dict, design_to_dict
+from core import Design, DesignError, design_from_dict, design_to_dict, with_value
 from core.design import ExhibitSite, beats_per_hour
 
 __all__ = ["PART_KINDS", "set_value", "add_part", "remove_part", "duplicate_part",
@@ -31,8 +31,6 @@ def _edit(design: Design) -> dict[str, Any]:
 
 def set_value(design: Design, path: str, value: Any) -> Design:
     """``design`` with the field at ``path`` (e.g. ``parts[1].mass_kg``) set to ``value``."""
-    from core import with_value
-
     if path.startswith("exhibit.") and design.exhibit is None:  # the optional section
         design = dataclasses.replace(design, exhibit=ExhibitSite())
     return with_value(design, path, value)

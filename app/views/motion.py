@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import math
+
 import numpy as np
 from PySide6.QtGui import QAction
 from PySide6.QtWidgets import QWidget
@@ -15,6 +17,9 @@ from core import Result
 __all__ = ["MotionPlot", "COINCIDE_PX"]
 
 COINCIDE_PX = 1.5  # curves closer than this on screen are drawn as one
+EXACT_PEN_PX, LINEAR_PEN_PX = 2.0, 1.5
+# A small-angle curve within this of the exact one lies wholly under its wider line
+HIDDEN_UNDER_PX = (EXACT_PEN_PX - LINEAR_PEN_PX) / 2
 
 
 @from_card("motion")
@@ -31,8 +36,8 @@ class MotionPlot(ChartView):
         item.setLabel("bottom", "Time (s)")
         item.setLabel("left", "Angle (°)")
         self.ghost = self._curve(theme.GHOST, 2.0, None, z=-10)
-        self.exact = self._curve(theme.EXACT, 2.0, "Exact", z=2, smooth=True)
-        self.linear = self._curve(theme.LINEAR, 1.5, "Small-angle model", z=1)
+        self.exact = self._curve(theme.EXACT, EXACT_PEN_PX, "Exact", z=2, smooth=True)
+        self.linear = self._curve(theme.LINEAR, LINEAR_PEN_PX, "Small-angle model", z=1)
         self.difference_view = self._right_view("Exact − small-angle (°)", theme.DIFFERENCE)
         self.difference = self._curve(theme.DIFFERENCE, 1.0, "Exact − small-angle",
                                       view=self.difference_view)
@@ -68,14 +73,33 @@ class MotionPlot(ChartView):
         self._result_arrived(result, baseline)
         m = result.motion
         t = np.asarray(m.time_s, dtype=float)
+        difference = degrees(m.difference_rad)
         self.exact.setData(t, degrees(m.angle_rad))
-        self.linear.setData(t, degrees(m.linear_angle_rad))
-        self.difference.setData(t, degrees(m.difference_rad))
+        if self._streaming and self._lies_under_exact(difference):
+            self.linear.setData([], [])  # not drawn in a live drag: it could not be seen
+        else:
+            self.linear.setData(t, degrees(m.linear_angle_rad))
+        self.difference.setData(t, difference)
         self._show_ghost(self.ghost, None if baseline is None else
                    (baseline.motion.time_s, degrees(baseline.motion.angle_rad)))
         if self.follows_result:
             self._frame()
         self._settle()
+
+    def _lies_under_exact(self, difference_deg: np.ndarray) -> bool:
+        """True when the small-angle curve would lie wholly under the exact one's wider line
+        at the scale on view (the pens differ by twice ``HIDDEN_UNDER_PX``)."""
+        vb = self.getPlotItem().vb
+        y_lo, y_hi = vb.viewRange()[1]
+        px_per_deg = float(vb.height()) / (y_hi - y_lo) if y_hi > y_lo else math.inf
+        return abs_max(difference_deg) * px_per_deg <= HIDDEN_UNDER_PX
+
+    def _stream_ended(self) -> None:
+        """At rest the small-angle curve is drawn again, hidden or not."""
+        if self._alive() and self._result is not None:
+            m = self._result.motion
+            self.linear.setData(np.asarray(m.time_s, dtype=float), degrees(m.linear_angle_rad))
+        super()._stream_ended()
 
     def _reframe(self) -> None:
         if self._result is not None:

@@ -36,6 +36,7 @@ class PhasePlot(ChartView):
     NEIGHBOUR_SLOTS = 8
     OVER_THE_TOP_SLOTS = 4
     WIDE_SWING_DEG = 90.0
+    LOOPS_COINCIDE_PX = 0.5  # a damped motion's loops closer than this are drawn once in a drag
 
     def __init__(self, parent: QWidget | None = None) -> None:
         super().__init__(parent)
@@ -82,7 +83,6 @@ class PhasePlot(ChartView):
         """Draw ``result.phase`` in degrees and degrees per second."""
         self._result_arrived(result, baseline)
         phase = result.phase
-        self.current.setData(*self._this_swing(result))
         fill_slots(self.neighbours, phase.neighbours)
         if phase.separatrix is None:
             self.separatrix.setData([], [])
@@ -93,7 +93,14 @@ class PhasePlot(ChartView):
         self._show_ghost(self.ghost, None if baseline is None else self._this_swing(baseline))
         if self.follows_result:
             self._frame(result)
+        self.current.setData(*self._drawn_swing(result))
         self._settle()
+
+    def _stream_ended(self) -> None:
+        """At rest the damped motion is drawn whole again (see :meth:`_drawn_swing`)."""
+        if self._alive() and self._result is not None:
+            self.current.setData(*self._this_swing(self._result))
+        super()._stream_ended()
 
     def _reframe(self) -> None:
         if self._result is not None:
@@ -111,6 +118,25 @@ class PhasePlot(ChartView):
             return degrees(m.angle_rad), degrees(m.angular_velocity_rad_s)
         orbit = result.phase.current
         return degrees(orbit.angle_rad), degrees(orbit.angular_velocity_rad_s)
+
+    def _drawn_swing(self, result: Result) -> tuple[np.ndarray, np.ndarray]:
+        """This swing as drawn now: whole at rest; during a live drag, a damped motion whose
+        later loops lie within ``LOOPS_COINCIDE_PX`` of its first on screen is drawn for its
+        first period only (the thick line's later loops would be painted over it, at a cost
+        in every step)."""
+        x, y = self._this_swing(result)
+        if not (self._streaming and self._damped(result)):
+            return x, y
+        first = result.motion.time_s <= result.period_s
+        n = int(np.count_nonzero(first)) + 1
+        if n >= x.size:
+            return x, y
+        vb = self.getPlotItem().vb
+        (x0, x1), (y0, y1) = vb.viewRange()
+        shrink_px = max(
+            (np.max(np.abs(x[:n])) - np.max(np.abs(x[-n:]))) * vb.width() / max(x1 - x0, 1e-300),
+            (np.max(np.abs(y[:n])) - np.max(np.abs(y[-n:]))) * vb.height() / max(y1 - y0, 1e-300))
+        return (x[:n], y[:n]) if shrink_px < self.LOOPS_COINCIDE_PX else (x, y)
 
     def _frame(self, result: Result) -> None:
         """Frame this swing and its neighbours; or ±180° with the separatrix (asked for,

@@ -534,3 +534,20 @@ def test_an_edit_outside_the_rating_log_keeps_the_log_and_equals_a_full_reading(
     with pytest.raises(DesignError) as refused:
         analyse(replace(edited, swing=swing))
     assert refused.value.field == "swing.amplitude_deg"
+
+
+def test_setting_a_value_leaves_the_dict_it_was_given_as_it_was() -> None:
+    import copy
+
+    from core.fileformat import set_in_dict
+
+    design = load_design(ROOT / "resources/examples/workshop_regulator.pendulum.json")
+    original = design_to_dict(design)
+    untouched = copy.deepcopy(original)
+    edited = set_in_dict(original, "parts[2].mount.on", "rod")
+    assert original == untouched  # nothing along the path was changed in place
+    assert edited["parts"][2]["mount"]["on"] == "rod"
+    assert edited["site"] is original["site"]  # the rest is shared, not copied
+    with pytest.raises(DesignError) as refused:
+        set_in_dict(original, "name.first", 1)
+    assert refused.value.field == "name.first" and original == untouched
