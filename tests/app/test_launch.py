@@ -97,3 +97,48 @@ def test_the_workbench_replaces_the_first_window_at_its_place(qapp) -> None:  # 
         window.document.undo_stack.setClean()
         window.close()
         app_settings().clear()
+
+
+@pytest.mark.slow  # a fresh interpreter
+def test_start_up_steps_round_the_feature_scan_and_puts_everything_back() -> None:
+    # PySide reads the source of every module imported after it (to see whether it names
+    # PySide) and records the answer in its feature table; start-up steps round that for the
+    # libraries, then the hook and the collector are as before, and the start-up's objects
+    # are frozen out of later collections.
+    code = """
+import builtins, gc, sys
+from PySide6.QtWidgets import QApplication
+from core import load_design
+from app.launch import default_design_path, open_window
+
+hook = builtins.__import__
+app = QApplication(sys.argv[:1])
+window = open_window(app, load_design(default_design_path()), None, remember_layout=False)
+table = sys.modules["shibokensupport.feature"].pyside_feature_dict
+import colorsys  # a module first imported after start-up: scanned as PySide wants
+print(builtins.__import__ is hook, gc.isenabled(), gc.get_freeze_count() > 10000,
+      "numpy" in table, "pyqtgraph" in table, "colorsys" in table, window.result is not None)
+window.document.undo_stack.setClean()
+"""
+    env = {**os.environ, "QT_QPA_PLATFORM": "offscreen"}
+    done = subprocess.run([sys.executable, "-c", code], cwd=ROOT, env=env, capture_output=True,
+                          text=True, timeout=120)
+    assert done.returncode == 0, done.stderr
+    assert done.stdout.split() == ["True", "True", "True", "False", "False", "True", "True"]
+
+
+def test_a_failed_start_up_puts_the_import_hook_and_the_collector_back(qapp, monkeypatch) -> None:  # type: ignore[no-untyped-def]
+    import builtins
+    import gc
+
+    from app import launch
+    from core import load_design
+
+    def refuse(*_args, **_kwargs):  # type: ignore[no-untyped-def]
+        raise RuntimeError("no window today")
+
+    monkeypatch.setattr(launch, "first_window", refuse)
+    hook = builtins.__import__
+    with pytest.raises(RuntimeError):
+        launch.open_window(qapp, load_design(EXAMPLE), EXAMPLE, remember_layout=False)
+    assert builtins.__import__ is hook and gc.isenabled()
