@@ -14,16 +14,15 @@ for every result.
 
 from __future__ import annotations
 
-import builtins
 import ctypes
 import ctypes.util
-import gc
 import os
 import sys
-from collections.abc import Callable, Iterator
-from contextlib import contextmanager
+from collections.abc import Callable
 from pathlib import Path
 from typing import TYPE_CHECKING
+
+from app.import_path import start_up
 
 if TYPE_CHECKING:
     from PySide6.QtWidgets import QApplication, QMainWindow
@@ -150,8 +149,10 @@ def open_window(app: QApplication, design: Design, path: Path | None,
     imports and replaced by the workbench, analysed before it is shown (a few milliseconds
     for most designs): its first paint has the figures and curves, and no paint of an empty
     workbench is spent. Without it (a screenshot), the workbench is made but not shown.
+    The libraries are imported in turn on this thread: importing the integrator on a pool
+    thread at the same time was measured slower (the two share one interpreter lock).
     """
-    with _start_up(freeze=first):
+    with start_up(freeze=first):  # measured: window ready 0.86 -> 0.76 s, 178 -> 162 MB
         shell = first_window(app, design.name, remember_layout) if first else None
         from app.document.settings import APPLICATION, ORGANISATION  # numpy, scipy: heavy
         from app.window.main_window import MainWindow
@@ -169,40 +170,6 @@ def open_window(app: QApplication, design: Design, path: Path | None,
             shell.close()
             shell.deleteLater()
     return window
-
-
-@contextmanager
-def _start_up(freeze: bool) -> Iterator[None]:
-    """Load the libraries and build the window with two costs of start-up taken off, both
-    measured with ``benchmarks/app_bench.py`` (window ready 0.92 → 0.79 s, 178 → 162 MB):
-
-    - PySide's ``__feature__`` import hook is stepped round. For every module imported after
-      PySide it reads the module's whole source (to see whether it names PySide), which costs
-      ~150 ms and ~30 MB of cached source for numpy, scipy and pyqtgraph. A module it has not
-      seen keeps the default selection (no feature), which is what every module here and in
-      those libraries uses; nothing here imports ``__feature__``. The hook is put back after.
-    - The cyclic garbage collector is paused: start-up makes ~100 000 long-lived objects and
-      no garbage worth the passes it would make over them. With ``freeze`` (the first window,
-      which lives as long as the program), what start-up made is moved out of the
-      collector's sight for good (``gc.freeze``), so later collections during a drag do not
-      walk it again.
-
-    Importing the integrator on a pool thread meanwhile was measured slower (the two imports
-    share one interpreter lock); a window's own warm-up after its first paint stays.
-    """
-    hook = builtins.__import__
-    plain = getattr(builtins, "__orig_import__", hook)  # PySide's import below its hook
-    collecting = gc.isenabled()
-    builtins.__import__ = plain
-    gc.disable()
-    try:
-        yield
-    finally:
-        builtins.__import__ = hook
-        if collecting:
-            if freeze:
-                gc.freeze()
-            gc.enable()
 
 
 def first_window(app: QApplication, name: str, remember_layout: bool = True) -> QMainWindow:

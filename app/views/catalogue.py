@@ -23,6 +23,8 @@ from collections.abc import Callable
 from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any, TypeVar
 
+from app.import_path import without_feature_scan
+
 if TYPE_CHECKING:
     from app.views.base import View
 
@@ -41,8 +43,11 @@ class ViewCard:
     in_report: bool = True
 
     def load(self) -> type[View]:
-        """The view's class (its module imported now if it was not)."""
-        cls: type[View] = getattr(importlib.import_module(self.module), self.class_name)
+        """The view's class (its module imported now if it was not, without PySide's feature
+        scan: :mod:`app.import_path`)."""
+        with without_feature_scan():
+            module = importlib.import_module(self.module)
+        cls: type[View] = getattr(module, self.class_name)
         return cls
 
     def __call__(self) -> View:
