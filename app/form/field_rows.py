@@ -195,6 +195,7 @@ class ChoiceRow(Row):
             QComboBox.SizeAdjustPolicy.AdjustToMinimumContentsLengthWithIcon)
         self.combo.setMinimumContentsLength(10)
         self.line.addWidget(self.combo, 1)
+        self._choices: tuple[tuple[str, str], ...] = ()
         self.set_choices(choices)
         self.combo.activated.connect(self._on_activated)
 
@@ -202,7 +203,11 @@ class ChoiceRow(Row):
         return self.combo
 
     def set_choices(self, choices: list[tuple[str, str]]) -> None:
-        """Replace the (key, label) choices without emitting."""
+        """Replace the (key, label) choices without emitting (nothing is redone when they are
+        the ones listed: a drag writes the whole form on each step)."""
+        if tuple(choices) == self._choices and self.combo.count() == len(choices):
+            return
+        self._choices = tuple(choices)
         with QSignalBlocker(self.combo):
             current = self.combo.currentData()
             self.combo.clear()

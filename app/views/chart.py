@@ -207,5 +207,5 @@ def fill_slots(slots: list[pg.PlotCurveItem], orbits: Any) -> None:
         if i < len(orbits):
             curve.setData(degrees(orbits[i].angle_rad),
                           degrees(orbits[i].angular_velocity_rad_s))
-        else:
+        elif curve.xData is not None and len(curve.xData):  # an empty slot stays as it is
             curve.setData([], [])
