@@ -78,6 +78,7 @@ class ReadoutPanel(QWidget):
         self._result: Result | None = None
         self._baseline: Result | None = None
         self._items: dict[str, tuple[QTreeWidgetItem, str, str]] = {}
+        self._units_shown: dict[UnitSystem, dict[str, ReadoutUnit]] = {}  # by system, key
         self._labels: dict[str, str] = {}
         self._purpose = ""
         self._budget_items: list[QTreeWidgetItem] = []
@@ -313,8 +314,9 @@ class ReadoutPanel(QWidget):
         if self._own_min_width is None or self.tree.isColumnHidden(3) != (base is None):
             self._show_delta_column(base is not None)
         cells: list[tuple[QTreeWidgetItem, int, str]] = []
-        for key, (item, unit, fmt) in self._items.items():
-            shown = readout_unit(unit, self._system)
+        units = self._units_in(self._system)
+        for key, (item, _unit, fmt) in self._items.items():
+            shown = units[key]
             label, factor = figure_label(key, self._labels[key], result, self._system)
             if factor != 1.0:
                 shown = ReadoutUnit(shown.text, shown.scale * factor)
@@ -337,6 +339,15 @@ class ReadoutPanel(QWidget):
         if not self.trim_field.hasFocus():
             self.trim_field.set_value(result.sensitivities.trim_height_m)
         self.show_compute_problem("")
+
+    def _units_in(self, system: UnitSystem) -> dict[str, ReadoutUnit]:
+        """Each figure's unit in ``system`` (worked out once per system)."""
+        units = self._units_shown.get(system)
+        if units is None or len(units) != len(self._items):
+            units = {key: readout_unit(unit, system)
+                     for key, (_item, unit, _fmt) in self._items.items()}
+            self._units_shown[system] = units
+        return units
 
     def _show_budget(self, result: Result) -> None:
         rows, tips = budget_rows(result, self._system)
