@@ -96,8 +96,10 @@ def _suspension_to_dict(design: Design) -> dict[str, Any]:
                        "thickness_m": b.thickness_m, "free_length_m": b.free_length_m}}
 
 
-def design_to_dict(design: Design) -> dict[str, Any]:
-    """The file form (format 2) of ``design``; every key written, SI units.
+def design_to_dict(design: Design, without: tuple[str, ...] = ()) -> dict[str, Any]:
+    """The file form (format 2) of ``design``; every key written, SI units. ``without``
+    names optional top-level sections to leave out (``("rating_log",)``: a form that edits
+    everything but the log need not write every reading on each edit).
 
     Raises
     ------
@@ -131,7 +133,7 @@ def design_to_dict(design: Design) -> dict[str, Any]:
         d["target"] = {"period_s": t.period_s}
     d["rating_nut"] = {"pitch_m": design.rating_nut.pitch_m}
     for section in SECTIONS:
-        if section.present(design):
+        if section.key not in without and section.present(design):
             d[section.key] = section.write(design)
     return d
 
@@ -350,11 +352,10 @@ def with_value(design: Design, path: str, value: Any) -> Design:
     The rating log is read on its own (it refers to nothing else in the file), so an edit
     elsewhere keeps the validated log as it is instead of reading every reading again.
     """
-    text = design_to_dict(design)
     log = design.rating_log
     if (log is None or path.split(".")[0].split("[")[0] in ("rating_log", "version", "format")
             or not is_validated(design)):
-        return design_from_dict(set_in_dict(text, path, value))
-    del text["rating_log"]
+        return design_from_dict(set_in_dict(design_to_dict(design), path, value))
+    text = design_to_dict(design, without=("rating_log",))
     return mark_validated(replace(design_from_dict(set_in_dict(text, path, value)),
                                   rating_log=log))

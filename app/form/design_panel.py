@@ -180,7 +180,7 @@ class DesignPanel(PartsSection, SuspensionSection, QScrollArea):
             self.set_result(self._result)
 
     def _write_values(self, design: Design) -> None:
-        d = design_to_dict(design)
+        d = design_to_dict(design, without=("rating_log",))  # no row of the form shows it
         target_kind = ("beats_per_hour" if "beats_per_hour" in d["target"] else
                        "none" if d["target"].get("period_s") is None else "period")
         for path, row in self.all_rows().items():

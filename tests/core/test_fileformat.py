@@ -551,3 +551,12 @@ def test_setting_a_value_leaves_the_dict_it_was_given_as_it_was() -> None:
     with pytest.raises(DesignError) as refused:
         set_in_dict(original, "name.first", 1)
     assert refused.value.field == "name.first" and original == untouched
+
+
+def test_a_section_can_be_left_out_of_the_file_form() -> None:
+    design = load_design(ROOT / "resources/examples/workshop_regulator.pendulum.json")
+    full = design_to_dict(design)
+    short = design_to_dict(design, without=("rating_log",))
+    assert "rating_log" in full and "rating_log" not in short
+    del full["rating_log"]
+    assert short == full
