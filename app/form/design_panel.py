@@ -172,12 +172,13 @@ class DesignPanel(PartsSection, SuspensionSection, QScrollArea):
     def _on_design_changed(self, design: Design) -> None:
         self._refresh_parts_list(design)
         signature = self._signature(design)
-        if signature != self._editor_signature:
+        rebuilt = signature != self._editor_signature
+        if rebuilt:
             self._editor_signature = signature
             self._rebuild_part_editor(design)
         self._write_values(design)
-        if self._result is not None:
-            self.set_result(self._result)
+        if rebuilt and self._result is not None:  # new rows; the others wait for the
+            self.set_result(self._result)         # analysis of this design (set_result)
 
     def _write_values(self, design: Design) -> None:
         d = design_to_dict(design, without=("rating_log",))  # no row of the form shows it

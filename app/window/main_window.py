@@ -107,8 +107,8 @@ class MainWindow(WindowMenus, WindowComputing, WindowFiles, WindowLayout, QMainW
         self.plot_area = PlotArea(cast(ViewList[QWidget], self.plots), DEFAULT_ARRANGEMENT)
         self.plot_area.tabs.currentChanged.connect(lambda _index: self._refresh_plots())
         self.readout = ReadoutPanel(self._system)
-        for styled in (self.plot_area, self.readout):  # not the design panel: see app.theme
-            styled.setStyleSheet(theme.STYLE_SHEET)
+        # the plot area only: the design panel and the readout style their parts (app.theme)
+        self.plot_area.setStyleSheet(theme.STYLE_SHEET)
         self.readout.set_budget_ranges(self._budget_ranges)
         self.splitter = QSplitter(Qt.Orientation.Horizontal)
         self.splitter.setChildrenCollapsible(False)
