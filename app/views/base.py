@@ -31,7 +31,7 @@ from typing import Any, ClassVar, Protocol
 import numpy as np
 import pyqtgraph as pg
 from PySide6.QtCore import QSignalBlocker, Qt, QTimer
-from PySide6.QtGui import QAction, QColor
+from PySide6.QtGui import QAction, QColor, QPainter
 from PySide6.QtWidgets import QComboBox, QFileDialog, QHBoxLayout, QLabel, QWidget
 
 from app import theme
@@ -89,6 +89,7 @@ class ResultView(pg.PlotWidget):
     in_report: bool = True
     caption: str = ""
     follows_pan: ClassVar[bool] = True  # a pan or zoom stops framing each new result
+    smooth_at_rest: ClassVar[bool] = False  # the whole view antialiased, but not in a drag
 
     def __init__(self, parent: QWidget | None = None,
                  background: str = theme.PLOT_BACKGROUND) -> None:
@@ -155,13 +156,27 @@ class ResultView(pg.PlotWidget):
         if visible and fresh:
             self._stream_timer.start()
         self._result, self._baseline = result, baseline
+        self._set_smooth(not self._streaming)
 
     def _alive(self) -> bool:
         """False while pyqtgraph builds or closes the widget (its items are gone then)."""
         return not getattr(self, "closed", False) and self.__dict__.get("plotItem") is not None
 
+    def _set_smooth(self, on: bool) -> None:
+        """Antialiased at rest, plain while results stream in (a live drag keeps its speed):
+        the whole view with ``smooth_at_rest``; views that smooth only some items override
+        this and :attr:`smooth`."""
+        if self.smooth_at_rest and self._alive() and self.smooth != on:
+            self.setAntialiasing(on)
+
+    @property
+    def smooth(self) -> bool:
+        """True while the view is drawn antialiased."""
+        return bool(self.renderHints() & QPainter.RenderHint.Antialiasing)
+
     def _stream_ended(self) -> None:
         self._streaming = False
+        self._set_smooth(True)
         if self._follow and self._alive() and self._result is not None:
             self._reframe()
 

@@ -102,16 +102,6 @@ class ChartView(ResultView):
             self._legend_key += ((id(curve), name),)
         return curve
 
-    def _result_arrived(self, result: Any, baseline: Any) -> None:
-        """As the base; in a stream, the smooth curves are drawn plain until it stops."""
-        super()._result_arrived(result, baseline)
-        if self._streaming:
-            self._set_smooth(False)
-
-    def _stream_ended(self) -> None:
-        self._set_smooth(True)
-        super()._stream_ended()
-
     def _set_smooth(self, on: bool) -> None:
         if not self._alive():
             return

@@ -65,6 +65,7 @@ class SwingPreview(ResultView, SwingAnimation):
     caption = ("The pendulum to scale at release (full semi-arc), with the paths of the bob "
                "centre and of the lowest point over the swing.")
     follows_pan = False  # the drawing is framed whole for every result
+    smooth_at_rest = SMOOTH_DRAWING
 
     playingChanged = QtCore.Signal(bool)
     speedChanged = QtCore.Signal(float)
@@ -132,7 +133,6 @@ class SwingPreview(ResultView, SwingAnimation):
         """
         old_baseline = self._baseline
         self._result_arrived(result, baseline)
-        self._set_smooth(SMOOTH_DRAWING and not self._streaming)
         outlines = outlines_from_bodies(result.bodies)
         self._clock = MotionClock(result)
         geometry = result.geometry  # the core's deepest point and reach of the whole body
@@ -309,21 +309,6 @@ class SwingPreview(ResultView, SwingAnimation):
     def _reframe(self) -> None:
         if self._drawing is not None:
             self._fit_view()
-
-    def _stream_ended(self) -> None:
-        self._set_smooth(SMOOTH_DRAWING)
-        super()._stream_ended()
-
-    def _set_smooth(self, on: bool) -> None:
-        """Antialiased drawing at rest; plain while results stream in (a live drag), as the
-        chart views do, so the drag keeps its speed."""
-        if self._alive() and self.smooth != on:
-            self.setAntialiasing(on)
-
-    @property
-    def smooth(self) -> bool:
-        """True while the drawing is antialiased (at rest; not during a live drag)."""
-        return bool(self.renderHints() & QtGui.QPainter.RenderHint.Antialiasing)
 
     def pose_for_export(self) -> None:
         """Stop the animation and pose the pendulum at release (full semi-arc)."""
