@@ -51,7 +51,6 @@ class PhasePlot(ChartView):
         self.over_the_top = [self._curve(theme.OVER_THE_TOP, 1.0, "Over the top" if i == 0
                                          else None, z=0) for i in range(self.OVER_THE_TOP_SLOTS)]
         self._show_separatrix = False
-        self._swings: dict[int, tuple[Result, tuple[np.ndarray, np.ndarray]]] = {}
         strip = self.control_bar()
         self.separatrix_box = QCheckBox("Show separatrix")
         self.separatrix_box.setToolTip("Zoom out to ±180° to see the separatrix between "
@@ -113,22 +112,12 @@ class PhasePlot(ChartView):
         return result.design.swing.quality_factor is not None
 
     def _this_swing(self, result: Result) -> tuple[np.ndarray, np.ndarray]:
-        """This swing in ° and °/s: the damped motion from release, or the closed orbit
-        (converted once per result: framing, drawing and the ghost all ask for it)."""
-        held = self._swings.get(id(result))
-        if held is not None and held[0] is result:
-            return held[1]
+        """This swing in ° and °/s: the damped motion from release, or the closed orbit."""
         if self._damped(result):
             m = result.motion
-            swing = degrees(m.angle_rad), degrees(m.angular_velocity_rad_s)
-        else:
-            orbit = result.phase.current
-            swing = degrees(orbit.angle_rad), degrees(orbit.angular_velocity_rad_s)
-        kept = (self._result, self._baseline)  # only the results on view are held
-        self._swings = {key: pair for key, pair in self._swings.items()
-                        if any(pair[0] is r for r in kept)}
-        self._swings[id(result)] = (result, swing)
-        return swing
+            return degrees(m.angle_rad), degrees(m.angular_velocity_rad_s)
+        orbit = result.phase.current
+        return degrees(orbit.angle_rad), degrees(orbit.angular_velocity_rad_s)
 
     def _drawn_swing(self, result: Result) -> tuple[np.ndarray, np.ndarray]:
         """This swing as drawn now: whole at rest; during a live drag, a damped motion whose
