@@ -78,7 +78,6 @@ class ReadoutPanel(QWidget):
         self._result: Result | None = None
         self._baseline: Result | None = None
         self._items: dict[str, tuple[QTreeWidgetItem, str, str]] = {}
-        self._units_shown: dict[UnitSystem, dict[str, ReadoutUnit]] = {}  # by system, key
         self._labels: dict[str, str] = {}
         self._purpose = ""
         self._budget_items: list[QTreeWidgetItem] = []
@@ -117,6 +116,7 @@ class ReadoutPanel(QWidget):
         self._fit_timer.setInterval(0)
         self._fit_timer.timeout.connect(lambda: self.notes.fit_in(self.splitter))
         self._style()
+        self._units = self._units_in(system)  # each figure's unit, by key
 
     def _style(self) -> None:
         """The workbench's look, with no style sheet over the figures' tree: under one (Qt's
@@ -308,6 +308,7 @@ class ReadoutPanel(QWidget):
     def set_unit_system(self, system: UnitSystem) -> None:
         """Show figures in ``system``'s units."""
         self._system = system
+        self._units = self._units_in(system)
         self.trim_field.set_unit(field_unit("trim_height_m", system))
         self.trim_unit.setText(self.trim_field.unit().text)
         for key, field in self.budget_fields.items():
@@ -324,9 +325,8 @@ class ReadoutPanel(QWidget):
         if self._own_min_width is None or self.tree.isColumnHidden(3) != (base is None):
             self._show_delta_column(base is not None)
         cells: list[tuple[QTreeWidgetItem, int, str]] = []
-        units = self._units_in(self._system)
         for key, (item, _unit, fmt) in self._items.items():
-            shown = units[key]
+            shown = self._units[key]
             label, factor = figure_label(key, self._labels[key], result, self._system)
             if factor != 1.0:
                 shown = ReadoutUnit(shown.text, shown.scale * factor)
@@ -351,13 +351,9 @@ class ReadoutPanel(QWidget):
         self.show_compute_problem("")
 
     def _units_in(self, system: UnitSystem) -> dict[str, ReadoutUnit]:
-        """Each figure's unit in ``system`` (worked out once per system)."""
-        units = self._units_shown.get(system)
-        if units is None or len(units) != len(self._items):
-            units = {key: readout_unit(unit, system)
-                     for key, (_item, unit, _fmt) in self._items.items()}
-            self._units_shown[system] = units
-        return units
+        """Each figure's unit in ``system`` (worked out when the system is chosen, not on every
+        result)."""
+        return {key: readout_unit(unit, system) for key, (_item, unit, _fmt) in self._items.items()}
 
     def _show_budget(self, result: Result) -> None:
         rows, tips = budget_rows(result, self._system)
